@@ -1,0 +1,28 @@
+import 'reflect-metadata'
+import { DataSource } from 'typeorm'
+import { MembershipEntity } from './entities/membership.entity'
+import { PathEntity } from './entities/path.entity'
+import { ProjectEntity } from './entities/project.entity'
+import { RevisionEntity } from './entities/revision.entity'
+import { TeamEntity } from './entities/team.entity'
+import { UserEntity } from './entities/user.entity'
+import { Initial1764633600000 } from './migrations/1764633600000-initial'
+
+export const entities = [UserEntity, TeamEntity, MembershipEntity, ProjectEntity, PathEntity, RevisionEntity]
+export const migrations = [Initial1764633600000]
+
+/** A MariaDB data source for the given URL. Schema changes come only from migrations. */
+export function createDataSource(url: string): DataSource {
+  return new DataSource({
+    type: 'mariadb',
+    url,
+    charset: 'utf8mb4_unicode_ci',
+    timezone: 'Z',
+    entities,
+    migrations,
+    migrationsTransactionMode: 'each',
+    synchronize: false,
+    logging: ['error'],
+    extra: { connectionLimit: 10 },
+  })
+}

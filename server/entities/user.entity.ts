@@ -1,0 +1,23 @@
+import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm'
+
+@Entity('users')
+@Index('IDX_users_email', ['email'], { unique: true })
+export class UserEntity {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id: number
+
+  @Column({ type: 'varchar', length: 254 })
+  email: string
+
+  @Column({ name: 'display_name', type: 'varchar', length: 120 })
+  displayName: string
+
+  @Column({ name: 'password_hash', type: 'varchar', length: 100 })
+  passwordHash: string
+
+  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt: Date
+
+  @Column({ name: 'last_active_at', type: 'datetime', precision: 3, nullable: true })
+  lastActiveAt: Date | null
+}

@@ -1,0 +1,130 @@
+import type { NextFunction, Request, RequestHandler, Response, Router } from 'express'
+import { z } from 'zod'
+import type { Role } from '../../shared/api/common'
+import { HttpError, forbidden, notFound, unauthenticated } from '../errors/http-error'
+import { type Permission, roleAllows } from '../services/policy'
+import type { AuthenticatedUser } from '../middleware/authenticate'
+
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
+
+/** Where a route finds the team whose role decides: a `teamId` or `projectId` URL parameter. */
+export type Scope = 'none' | 'team' | 'project'
+
+export interface RouteContext<P, Q, B> {
+  params: P
+  query: Q
+  body: B
+  /** The signed-in person; undefined only on public routes. */
+  user: AuthenticatedUser
+  /** The caller's role in the route's team (scope team or project). */
+  role: Role | undefined
+  teamId: number | undefined
+  req: Request
+  res: Response
+}
+
+export interface RouteSpec<
+  P extends z.ZodType = z.ZodType,
+  Q extends z.ZodType = z.ZodType,
+  B extends z.ZodType = z.ZodType,
+  R extends z.ZodType = z.ZodType,
+> {
+  method: Method
+  /** Express path below /api/v1, e.g. `/projects/:projectId`. */
+  path: string
+  summary: string
+  description?: string
+  tag: string
+  /** 'public', or the permission the caller's role must grant. */
+  access: 'public' | { permission: Permission; scope: Scope }
+  /**
+   * CSRF check for cookie sessions on state-changing methods (default true). Only routes
+   * that change nothing on the server (pure computations) or that start a session turn it off.
+   */
+  csrf?: boolean
+  params?: P
+  query?: Q
+  body?: B
+  /** Success status (default 200; 204 means no body). */
+  status?: number
+  response?: R
+  /** Express middleware run before access checks and validation (e.g. a rate limiter). */
+  middleware?: RequestHandler[]
+  /** Error statuses this route can answer besides the common ones. */
+  errors?: number[]
+  handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<z.input<R> | void>
+}
+
+/** Resolves the team a project belongs to; set by the app so the route layer stays generic. */
+export type ProjectTeamLookup = (projectId: number) => Promise<number | undefined>
+export type MembershipLookup = (userId: number, teamId: number) => Promise<Role | undefined>
+
+export interface ApiRegistry {
+  readonly routes: RouteSpec[]
+  add<P extends z.ZodType, Q extends z.ZodType, B extends z.ZodType, R extends z.ZodType>(
+    spec: RouteSpec<P, Q, B, R>,
+  ): void
+}
+
+export function validationError(error: z.ZodError, where: string): HttpError {
+  const flat = error.issues.map((i) => ({ path: [where, ...i.path.map(String)].join('.'), message: i.message }))
+  const first = flat[0]
+  const message = first ? `${first.message} (${first.path})` : 'The request is not valid.'
+  return new HttpError(400, 'validation', message, flat)
+}
+
+function parsePart<T extends z.ZodType>(schema: T | undefined, value: unknown, where: string): unknown {
+  if (!schema) return value
+  const r = schema.safeParse(value)
+  if (!r.success) throw validationError(r.error, where)
+  return r.data
+}
+
+const SAFE_METHODS = new Set(['get', 'head', 'options'])
+
+/**
+ * Mounts routes on an Express router and keeps their specs for the OpenAPI document, so
+ * the document and the validation come from the same zod schemas.
+ */
+export function createApiRegistry(
+  router: Router,
+  lookups: { projectTeam: ProjectTeamLookup; membership: MembershipLookup },
+): ApiRegistry {
+  const routes: RouteSpec[] = []
+  return {
+    routes,
+    add(spec) {
+      routes.push(spec as unknown as RouteSpec)
+      const checkCsrf = spec.csrf !== false && !SAFE_METHODS.has(spec.method)
+      router[spec.method](spec.path, ...(spec.middleware ?? []), async (req: Request, res: Response, _next: NextFunction) => {
+        const user = req.auth?.user
+        let role: Role | undefined
+        let teamId: number | undefined
+        if (spec.access !== 'public') {
+          if (!user) throw unauthenticated()
+          if (checkCsrf && req.auth?.via === 'session') req.auth.assertCsrf(req)
+          const { permission, scope } = spec.access
+          if (scope !== 'none') {
+            const raw = scope === 'team' ? req.params.teamId : req.params.projectId
+            const id = Number(raw)
+            if (!Number.isInteger(id) || id <= 0) throw notFound(scope === 'team' ? 'That team' : 'That project')
+            teamId = scope === 'team' ? id : await lookups.projectTeam(id)
+            role = teamId === undefined ? undefined : await lookups.membership(user.id, teamId)
+            if (!role) throw notFound(scope === 'team' ? 'That team' : 'That project')
+            if (!roleAllows(role, permission)) throw forbidden()
+          }
+        }
+        const params = parsePart(spec.params, req.params, 'params')
+        const query = parsePart(spec.query, req.query, 'query')
+        const body = parsePart(spec.body, req.body ?? {}, 'body')
+        const result = await spec.handler({
+          params, query, body, user: user as AuthenticatedUser, role, teamId, req, res,
+        } as never)
+        if (res.headersSent) return
+        const status = spec.status ?? 200
+        if (status === 204) res.status(204).end()
+        else res.status(status).json(result)
+      })
+    },
+  }
+}
