@@ -44,6 +44,7 @@ export default defineConfig({
           name: 'server',
           include: ['tests/server/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           environment: 'node',
+          globalSetup: ['tests/helpers/global-setup-db.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
         },
