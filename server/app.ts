@@ -1,6 +1,6 @@
 import { existsSync, readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
-import { dirname, join } from 'node:path'
+import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import express, { type NextFunction, type Request, type Response } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
@@ -120,10 +120,10 @@ export function createApp(deps: AppDeps): RootcastApp {
     throw new HttpError(404, 'not_found', `There is no API route ${req.method} ${req.originalUrl}.`)
   })
 
-  const clientDir = deps.clientDir
+  const clientDir = deps.clientDir && resolve(deps.clientDir)
   if (clientDir && existsSync(join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }))
-    app.get('/{*splat}', (_req, res) => res.sendFile(join(clientDir, 'index.html')))
+    app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: clientDir }))
   }
 
   app.use((req: Request, _res: Response, next: NextFunction) =>

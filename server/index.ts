@@ -37,7 +37,7 @@ export async function startServer(opts: StartOptions = {}): Promise<{ server: Se
   if (!url) {
     const port = Number(process.env.ROOTCAST_DB_PORT ?? DEFAULT_DB_PORT)
     mariadb = await startMariadb({ dataDir: join(DATA_DIR, 'mariadb'), port, database: 'rootcast' })
-    log(`MariaDB ${mariadb.startedHere ? 'started' : 'already running'} on 127.0.0.1:${port} (data in .data/mariadb)`)
+    log(`MariaDB ${{ started: 'started', adopted: 'found running (left by a stopped server); adopted', shared: 'already running (shared)' }[mariadb.state]} on 127.0.0.1:${port} (data in .data/mariadb)`)
     url = mariadb.url
   }
   const ds = createDataSource(url)
