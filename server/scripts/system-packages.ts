@@ -48,7 +48,7 @@ export function ensureProgram(p: SystemProgram): string {
     execFileSync('apt-get', ['update'], { stdio: ['ignore', 'ignore', 'inherit'], env })
     aptUpdated = true
   }
-  const r = spawnSync('apt-get', ['install', '-y', '--no-install-recommends', p.debianPackage], {
+  const r = spawnSync('apt-get', ['install', '-y', p.debianPackage], {
     stdio: ['ignore', 'ignore', 'inherit'],
     env,
   })
