@@ -15,6 +15,7 @@ import { authenticate } from './middleware/authenticate'
 import { buildOpenApiDocument } from './openapi'
 import { createApiRegistry, type ApiRegistry } from './routes/api-route'
 import { authRoutes } from './routes/auth.routes'
+import { computeRoutes } from './routes/compute.routes'
 import { projectRoutes } from './routes/projects.routes'
 import { systemRoutes } from './routes/system.routes'
 import { roleInTeam } from './services/auth.service'
@@ -104,6 +105,7 @@ export function createApp(deps: AppDeps): RootcastApp {
   })
   authRoutes(registry, ds, loginLimiter)
   projectRoutes(registry, ds)
+  computeRoutes(registry)
   let openApi: unknown
   systemRoutes(registry, ds, () => (openApi ??= buildOpenApiDocument(registry.routes, { version: readPackageVersion() })))
 

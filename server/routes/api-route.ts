@@ -23,6 +23,9 @@ export interface RouteContext<P, Q, B> {
   res: Response
 }
 
+/** Handlers may return readonly data (the geometry core's results are readonly). */
+type DeepReadonly<T> = T extends (infer U)[] ? readonly DeepReadonly<U>[] : T extends object ? { readonly [K in keyof T]: DeepReadonly<T[K]> } : T
+
 export interface RouteSpec<
   P extends z.ZodType = z.ZodType,
   Q extends z.ZodType = z.ZodType,
@@ -52,7 +55,7 @@ export interface RouteSpec<
   middleware?: RequestHandler[]
   /** Error statuses this route can answer besides the common ones. */
   errors?: number[]
-  handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<z.input<R> | void>
+  handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<DeepReadonly<z.input<R>> | void>
 }
 
 /** Resolves the team a project belongs to; set by the app so the route layer stays generic. */
@@ -66,7 +69,14 @@ export interface ApiRegistry {
   ): void
 }
 
+/** Arrays whose bound is at least this long are size limits rather than shapes. */
+const SIZE_LIMIT_MIN_ITEMS = 1000
+
 export function validationError(error: z.ZodError, where: string): HttpError {
+  // A list over a size bound (the contract's 100,000 items) is a limit, answered 413; a
+  // short fixed-length list (a point, four coefficients) with extra items is bad shape, 400.
+  const overLimit = error.issues.find((i) => i.code === 'too_big' && i.origin === 'array' && Number(i.maximum) >= SIZE_LIMIT_MIN_ITEMS)
+  if (overLimit) return new HttpError(413, 'limit', overLimit.message, [{ path: [where, ...overLimit.path.map(String)].join('.') }])
   const flat = error.issues.map((i) => ({ path: [where, ...i.path.map(String)].join('.'), message: i.message }))
   const first = flat[0]
   const message = first ? `${first.message} (${first.path})` : 'The request is not valid.'
