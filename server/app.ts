@@ -7,6 +7,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import session from 'express-session'
 import MySQLStoreFactory from 'express-mysql-session'
 import helmet from 'helmet'
+import multer from 'multer'
 import mysql from 'mysql2'
 import type { DataSource } from 'typeorm'
 import type { Config } from './config'
@@ -16,10 +17,12 @@ import { buildOpenApiDocument } from './openapi'
 import { createApiRegistry, type ApiRegistry } from './routes/api-route'
 import { authRoutes } from './routes/auth.routes'
 import { computeRoutes } from './routes/compute.routes'
+import { libraryRoutes } from './routes/library.routes'
 import { projectRoutes } from './routes/projects.routes'
 import { systemRoutes } from './routes/system.routes'
 import { roleInTeam } from './services/auth.service'
 import { projectTeamId } from './services/projects.service'
+import { pathTeamId } from './services/library.service'
 
 const here = dirname(fileURLToPath(import.meta.url))
 export const ROOT_DIR = join(here, '..')
@@ -100,12 +103,13 @@ export function createApp(deps: AppDeps): RootcastApp {
   })
 
   const registry = createApiRegistry(api, {
-    projectTeam: (id) => projectTeamId(ds, id),
+    teamOf: (scope, id) => (scope === 'project' ? projectTeamId(ds, id) : pathTeamId(ds, id)),
     membership: (userId, teamId) => roleInTeam(ds, userId, teamId),
   })
   authRoutes(registry, ds, loginLimiter)
   projectRoutes(registry, ds)
   computeRoutes(registry)
+  libraryRoutes(registry, ds)
   let openApi: unknown
   systemRoutes(registry, ds, () => (openApi ??= buildOpenApiDocument(registry.routes, { version: readPackageVersion() })))
 
@@ -151,6 +155,10 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   if (err instanceof HttpError) e = err
   else if (anyErr?.type === 'entity.parse.failed') e = new HttpError(400, 'invalid_json', 'The request body is not valid JSON.')
   else if (anyErr?.type === 'entity.too.large') e = new HttpError(413, 'limit', `The request body is larger than the limit of ${JSON_LIMIT}.`)
+  else if (err instanceof multer.MulterError)
+    e = err.code === 'LIMIT_FILE_SIZE' || err.code === 'LIMIT_FILE_COUNT'
+      ? new HttpError(413, 'limit', err.code === 'LIMIT_FILE_SIZE' ? 'A file is larger than the upload limit.' : 'Too many files in one upload.')
+      : new HttpError(400, 'bad_upload', `The upload is not valid: ${err.message}.`)
   else if (anyErr?.type === 'charset.unsupported' || anyErr?.type === 'encoding.unsupported')
     e = new HttpError(415, 'unsupported_encoding', 'Send JSON in UTF-8.')
   else if (typeof anyErr?.status === 'number' && anyErr.status >= 400 && anyErr.status < 500 && anyErr.expose)

@@ -63,6 +63,23 @@ function parametersOf(schema: z.ZodType | undefined, where: 'path' | 'query', co
   }))
 }
 
+function requestBodyOf(r: RouteSpec, convert: ReturnType<typeof makeConverter>): Json {
+  if (r.upload) {
+    const fields = r.body ? convert(r.body, 'input') : { type: 'object', properties: {} }
+    const file = { type: 'string', format: 'binary' }
+    const schema = {
+      ...fields,
+      properties: {
+        ...((fields.properties ?? {}) as Json),
+        [r.upload.field]: r.upload.maxFiles > 1 ? { type: 'array', items: file, maxItems: r.upload.maxFiles, description: r.upload.description } : { ...file, description: r.upload.description },
+      },
+      required: [...((fields.required ?? []) as string[]), r.upload.field],
+    }
+    return { requestBody: { required: true, content: { 'multipart/form-data': { schema } } } }
+  }
+  return r.body ? { requestBody: { required: true, content: { 'application/json': { schema: convert(r.body, 'input') } } } } : {}
+}
+
 export function buildOpenApiDocument(routes: readonly RouteSpec[], info: { version: string }): Json {
   const components: Record<string, Json> = {}
   const convert = makeConverter(components)
@@ -73,9 +90,11 @@ export function buildOpenApiDocument(routes: readonly RouteSpec[], info: { versi
     const p = `/api/v1${openApiPath(r.path)}`
     const status = r.status ?? 200
     const responses: Json = {
-      [status]: status === 204 || !r.response
-        ? { description: 'Done; no content' }
-        : { description: 'Success', content: { 'application/json': { schema: convert(r.response, 'output') } } },
+      [status]: r.produces
+        ? { description: 'Success: a file', content: { [r.produces]: { schema: { type: 'string', format: 'binary' } } } }
+        : status === 204 || !r.response
+          ? { description: 'Done; no content' }
+          : { description: 'Success', content: { 'application/json': { schema: convert(r.response, 'output') } } },
     }
     const errors = new Set<number>([...(r.errors ?? [])])
     if (r.body || r.query || r.params) errors.add(400)
@@ -93,7 +112,7 @@ export function buildOpenApiDocument(routes: readonly RouteSpec[], info: { versi
       ...(r.description ? { description: r.description } : {}),
       tags: [r.tag],
       parameters: [...parametersOf(r.params, 'path', convert), ...parametersOf(r.query, 'query', convert)],
-      ...(r.body ? { requestBody: { required: true, content: { 'application/json': { schema: convert(r.body, 'input') } } } } : {}),
+      ...requestBodyOf(r, convert),
       responses,
       security: r.access === 'public' ? [] : [{ session: [] }, { bearer: [] }],
       'x-rootcast-permission': r.access === 'public' ? 'public' : r.access.permission,

@@ -18,6 +18,41 @@ export class RevisionEntity {
   @Column({ type: 'mediumtext' })
   data: string
 
+  /** The normalised segments as JSON (tuples: 4 line, 6 quadratic, 8 cubic, 12 arc). */
+  @Column({ type: 'mediumtext', nullable: true })
+  segments: string | null
+
+  @Column({ name: 'segment_count', type: 'int', unsigned: true, default: 0 })
+  segmentCount: number
+
+  @Column({ name: 'count_line', type: 'int', unsigned: true, default: 0 })
+  countLine: number
+
+  @Column({ name: 'count_quadratic', type: 'int', unsigned: true, default: 0 })
+  countQuadratic: number
+
+  @Column({ name: 'count_cubic', type: 'int', unsigned: true, default: 0 })
+  countCubic: number
+
+  @Column({ name: 'count_arc', type: 'int', unsigned: true, default: 0 })
+  countArc: number
+
+  @Column({ name: 'bbox_min_x', type: 'double', nullable: true })
+  bboxMinX: number | null
+
+  @Column({ name: 'bbox_min_y', type: 'double', nullable: true })
+  bboxMinY: number | null
+
+  @Column({ name: 'bbox_max_x', type: 'double', nullable: true })
+  bboxMaxX: number | null
+
+  @Column({ name: 'bbox_max_y', type: 'double', nullable: true })
+  bboxMaxY: number | null
+
+  /** The core's diagnostics of this revision, as JSON. */
+  @Column({ type: 'mediumtext', nullable: true })
+  diagnostics: string | null
+
   @Column({ type: 'varchar', length: 500, default: '' })
   message: string
 

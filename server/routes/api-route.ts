@@ -1,4 +1,5 @@
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express'
+import multer from 'multer'
 import { z } from 'zod'
 import type { Role } from '../../shared/api/common'
 import { HttpError, forbidden, notFound, unauthenticated } from '../errors/http-error'
@@ -7,8 +8,11 @@ import type { AuthenticatedUser } from '../middleware/authenticate'
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 
-/** Where a route finds the team whose role decides: a `teamId` or `projectId` URL parameter. */
-export type Scope = 'none' | 'team' | 'project'
+/** Where a route finds the team whose role decides: a `teamId`, `projectId` or `pathId` URL parameter. */
+export type Scope = 'none' | 'team' | 'project' | 'path'
+
+const scopeParam = { team: 'teamId', project: 'projectId', path: 'pathId' } as const
+const scopeNoun = { team: 'That team', project: 'That project', path: 'That path' } as const
 
 export interface RouteContext<P, Q, B> {
   params: P
@@ -51,6 +55,13 @@ export interface RouteSpec<
   /** Success status (default 200; 204 means no body). */
   status?: number
   response?: R
+  /**
+   * A multipart upload: multer reads the named file field(s) into memory after the access
+   * check; `body` then validates the text fields. Files reach the handler as `req.files`.
+   */
+  upload?: { field: string; maxFiles: number; maxBytes: number; description: string }
+  /** Media type of a non-JSON success response (the handler sends it itself). */
+  produces?: string
   /** Express middleware run before access checks and validation (e.g. a rate limiter). */
   middleware?: RequestHandler[]
   /** Error statuses this route can answer besides the common ones. */
@@ -58,8 +69,8 @@ export interface RouteSpec<
   handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<DeepReadonly<z.input<R>> | void>
 }
 
-/** Resolves the team a project belongs to; set by the app so the route layer stays generic. */
-export type ProjectTeamLookup = (projectId: number) => Promise<number | undefined>
+/** Resolves the team a project or path belongs to; set by the app so the route layer stays generic. */
+export type TeamLookup = (scope: 'project' | 'path', id: number) => Promise<number | undefined>
 export type MembershipLookup = (userId: number, teamId: number) => Promise<Role | undefined>
 
 export interface ApiRegistry {
@@ -92,13 +103,18 @@ function parsePart<T extends z.ZodType>(schema: T | undefined, value: unknown, w
 
 const SAFE_METHODS = new Set(['get', 'head', 'options'])
 
+function readUpload(u: NonNullable<RouteSpec['upload']>, req: Request, res: Response): Promise<void> {
+  const handler = multer({ storage: multer.memoryStorage(), limits: { files: u.maxFiles, fileSize: u.maxBytes, fields: 20, fieldSize: 64 * 1024 } }).array(u.field, u.maxFiles)
+  return new Promise((resolve, reject) => handler(req, res, (err?: unknown) => (err ? reject(err) : resolve())))
+}
+
 /**
  * Mounts routes on an Express router and keeps their specs for the OpenAPI document, so
  * the document and the validation come from the same zod schemas.
  */
 export function createApiRegistry(
   router: Router,
-  lookups: { projectTeam: ProjectTeamLookup; membership: MembershipLookup },
+  lookups: { teamOf: TeamLookup; membership: MembershipLookup },
 ): ApiRegistry {
   const routes: RouteSpec[] = []
   return {
@@ -115,15 +131,15 @@ export function createApiRegistry(
           if (checkCsrf && req.auth?.via === 'session') req.auth.assertCsrf(req)
           const { permission, scope } = spec.access
           if (scope !== 'none') {
-            const raw = scope === 'team' ? req.params.teamId : req.params.projectId
-            const id = Number(raw)
-            if (!Number.isInteger(id) || id <= 0) throw notFound(scope === 'team' ? 'That team' : 'That project')
-            teamId = scope === 'team' ? id : await lookups.projectTeam(id)
+            const id = Number(req.params[scopeParam[scope]])
+            if (!Number.isInteger(id) || id <= 0) throw notFound(scopeNoun[scope])
+            teamId = scope === 'team' ? id : await lookups.teamOf(scope, id)
             role = teamId === undefined ? undefined : await lookups.membership(user.id, teamId)
-            if (!role) throw notFound(scope === 'team' ? 'That team' : 'That project')
+            if (!role) throw notFound(scopeNoun[scope])
             if (!roleAllows(role, permission)) throw forbidden()
           }
         }
+        if (spec.upload) await readUpload(spec.upload, req, res)
         const params = parsePart(spec.params, req.params, 'params')
         const query = parsePart(spec.query, req.query, 'query')
         const body = parsePart(spec.body, req.body ?? {}, 'body')

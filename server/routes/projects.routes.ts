@@ -3,7 +3,6 @@ import { z } from 'zod'
 import { idParam } from '../../shared/api/common'
 import {
   createProjectSchema,
-  pathSummarySchema,
   projectListQuerySchema,
   projectPageSchema,
   projectSchema,
@@ -75,14 +74,4 @@ export function projectRoutes(api: ApiRegistry, ds: DataSource): void {
     handler: async ({ params }) => projects.deleteProject(ds, params.projectId),
   })
 
-  api.add({
-    method: 'get',
-    path: '/projects/:projectId/paths',
-    tag: 'library',
-    summary: "The project's paths with the data of their current revision",
-    access: { permission: 'project.read', scope: 'project' },
-    params: projectParams,
-    response: z.array(pathSummarySchema),
-    handler: async ({ params }) => projects.listPaths(ds, params.projectId),
-  })
 }

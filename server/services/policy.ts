@@ -15,6 +15,12 @@ export const permissions = {
   'project.create': ['owner', 'editor'],
   'project.update': ['owner', 'editor'],
   'project.delete': ['owner'],
+  /** Browse and export the library. */
+  'library.read': ['owner', 'editor', 'viewer'],
+  /** Import, draw, change, tag, trash and restore paths. */
+  'library.write': ['owner', 'editor'],
+  /** Empty the trash for good. */
+  'library.purge': ['owner'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof permissions

@@ -1,8 +1,7 @@
 import type { DataSource } from 'typeorm'
-import type { CreateProject, Project, ProjectListQuery, ProjectPage, PathSummary } from '../../shared/api/projects'
+import type { CreateProject, Project, ProjectListQuery, ProjectPage } from '../../shared/api/projects'
 import { PathEntity } from '../entities/path.entity'
 import { ProjectEntity } from '../entities/project.entity'
-import { RevisionEntity } from '../entities/revision.entity'
 import { notFound } from '../errors/http-error'
 
 interface ProjectRow {
@@ -111,24 +110,4 @@ export async function updateProject(ds: DataSource, id: number, patch: { name?: 
 export async function deleteProject(ds: DataSource, id: number): Promise<void> {
   const r = await ds.getRepository(ProjectEntity).delete({ id })
   if (!r.affected) throw notFound('That project')
-}
-
-export async function listPaths(ds: DataSource, projectId: number): Promise<PathSummary[]> {
-  const rows = await ds
-    .getRepository(PathEntity)
-    .createQueryBuilder('pa')
-    .leftJoin(RevisionEntity, 'r', 'r.id = pa.currentRevisionId')
-    .select(['pa.id AS id', 'pa.name AS name', 'pa.fillRule AS fillRule', 'pa.updatedAt AS updatedAt', 'r.data AS data'])
-    .addSelect((sub) => sub.select('COUNT(*)').from(RevisionEntity, 'rv').where('rv.pathId = pa.id'), 'revisions')
-    .where('pa.projectId = :projectId', { projectId })
-    .orderBy('pa.name', 'ASC')
-    .getRawMany<{ id: number; name: string; fillRule: 'nonzero' | 'evenodd'; updatedAt: Date; data: string | null; revisions: string | number }>()
-  return rows.map((r) => ({
-    id: Number(r.id),
-    name: r.name,
-    fillRule: r.fillRule,
-    data: r.data ?? '',
-    revisions: Number(r.revisions),
-    updatedAt: new Date(r.updatedAt).toISOString(),
-  }))
 }

@@ -1,12 +1,15 @@
+import { readFileSync } from 'node:fs'
+import { createRequire } from 'node:module'
 import type { DataSource, EntityManager } from 'typeorm'
 import type { Role } from '../../shared/api/common'
 import { MembershipEntity } from '../entities/membership.entity'
-import { PathEntity, type FillRule } from '../entities/path.entity'
+import type { FillRule } from '../entities/path.entity'
 import { ProjectEntity } from '../entities/project.entity'
-import { RevisionEntity } from '../entities/revision.entity'
 import { TeamEntity } from '../entities/team.entity'
 import { UserEntity } from '../entities/user.entity'
 import { hashPassword } from './auth.service'
+import { importGlyphs } from './import/font-import'
+import { createPathsIn, type PathInput } from './library.service'
 
 /** The invented demo studio; the three addresses are fixed by the computation API contract. */
 export const DEMO_TEAM = 'Harbour Type Workshop'
@@ -16,19 +19,47 @@ export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; displayName: string; 
   { email: 'viewer@example.com', displayName: 'Ines Lighthouse', role: 'viewer' },
 ]
 
-/** Icons drawn for the demo on a 24-unit grid: lines, cubics, a quadratic, arcs and a self-crossing loop. */
-export const DEMO_PATHS: ReadonlyArray<{ name: string; fillRule: FillRule; data: string }> = [
-  { name: 'Arrow east', fillRule: 'nonzero', data: 'M4 11H14V6L22 12L14 18V13H4Z' },
+/**
+ * Wayfinding icons drawn for the demo on a 24-unit grid: lines, cubics, quadratics, arcs,
+ * rounded rectangles and a self-crossing knot.
+ */
+export const DEMO_PATHS: ReadonlyArray<{ name: string; fillRule: FillRule; data: string; tags: string[] }> = [
+  { name: 'Arrow east', fillRule: 'nonzero', data: 'M4 11H14V6L22 12L14 18V13H4Z', tags: ['arrow'] },
+  { name: 'Arrow north-west', fillRule: 'nonzero', data: 'M5 5H14L11 8L19 16L16 19L8 11L5 14Z', tags: ['arrow'] },
+  { name: 'U-turn arrow', fillRule: 'nonzero', data: 'M6 20V10A5 5 0 0 1 16 10V14H19L14.5 19L10 14H13V10A2 2 0 0 0 9 10V20Z', tags: ['arrow', 'arc'] },
   {
     name: 'Map pin',
     fillRule: 'evenodd',
     data: 'M12 2C8.13 2 5 5.13 5 9C5 14.25 12 22 12 22S19 14.25 19 9C19 5.13 15.87 2 12 2Z M12 6.5A2.5 2.5 0 1 1 12 11.5A2.5 2.5 0 1 1 12 6.5Z',
+    tags: ['arc'],
   },
-  { name: 'Lift sign', fillRule: 'nonzero', data: 'M5 3H19A2 2 0 0 1 21 5V19A2 2 0 0 1 19 21H5A2 2 0 0 1 3 19V5A2 2 0 0 1 5 3Z' },
-  { name: 'Stair', fillRule: 'nonzero', data: 'M3 20V16H8V12H13V8H18V4H21V20Z' },
-  { name: 'Ferry', fillRule: 'nonzero', data: 'M2 15H22L19.5 20Q12 21.5 4.5 20Z M6 14V10H17L19 14Z M9 9V6H13V9Z' },
-  { name: 'Crossing knot', fillRule: 'nonzero', data: 'M12 12C4 2 4 22 12 12C20 2 20 22 12 12Z' },
+  { name: 'Lift sign', fillRule: 'nonzero', data: 'M5 3H19A2 2 0 0 1 21 5V19A2 2 0 0 1 19 21H5A2 2 0 0 1 3 19V5A2 2 0 0 1 5 3Z', tags: ['rounded rect', 'arc'] },
+  { name: 'Lift arrows', fillRule: 'nonzero', data: 'M8 4L12 9H4Z M8 20L4 15H12Z M14 6H20V18H14Z', tags: ['arrow'] },
+  { name: 'Stair', fillRule: 'nonzero', data: 'M3 20V16H8V12H13V8H18V4H21V20Z', tags: [] },
+  { name: 'Ferry', fillRule: 'nonzero', data: 'M2 15H22L19.5 20Q12 21.5 4.5 20Z M6 14V10H17L19 14Z M9 9V6H13V9Z', tags: ['quadratic'] },
+  { name: 'Wave line', fillRule: 'nonzero', data: 'M2 18Q4.5 16 7 18T12 18T17 18T22 18V21H2Z', tags: ['quadratic'] },
+  { name: 'Info disc', fillRule: 'evenodd', data: 'M12 2A10 10 0 1 0 12 22A10 10 0 1 0 12 2Z M11 10H13V17H11Z M12 5.5A1.5 1.5 0 1 1 12 8.5A1.5 1.5 0 1 1 12 5.5Z', tags: ['arc'] },
+  { name: 'Anchor', fillRule: 'nonzero', data: 'M11 3H13V7H16V9H13V18.9C15.8 18.5 18 16.5 18.5 14H16.5L19.5 11L22 14H20.5C20 18 16.5 21 12 21S4 18 3.5 14H2L4.5 11L7.5 14H5.5C6 16.5 8.2 18.5 11 18.9V9H8V7H11Z', tags: [] },
+  { name: 'Crossing knot', fillRule: 'nonzero', data: 'M12 12C4 2 4 22 12 12C20 2 20 22 12 12Z', tags: ['self-intersecting'] },
 ]
+
+/** Glyphs of Roboto Bold (Apache License 2.0, from the npm package @fontsource/roboto) for the glyph review. */
+export const DEMO_GLYPH_TEXT = 'Rag&8'
+
+function demoGlyphs(): PathInput[] {
+  const file = createRequire(import.meta.url).resolve('@fontsource/roboto/files/roboto-latin-700-normal.woff2')
+  const r = importGlyphs(readFileSync(file), { text: DEMO_GLYPH_TEXT }, 50)
+  if (!r.ok) return []
+  return r.glyphs.map((g) => ({
+    name: g.name,
+    data: g.data,
+    fillRule: 'nonzero',
+    tags: ['Roboto Bold'],
+    units: 'font units',
+    sourceFile: 'roboto-latin-700-normal.woff2',
+    metadata: { family: r.font.family, unitsPerEm: r.font.unitsPerEm, ascender: r.font.ascender, descender: r.font.descender, advanceWidth: g.advanceWidth, codePoint: g.codePoint, glyphName: g.glyphName },
+  }))
+}
 
 /**
  * Seeds the demo team when the database has no users at all. Returns false when there was
@@ -37,26 +68,21 @@ export const DEMO_PATHS: ReadonlyArray<{ name: string; fillRule: FillRule; data:
 export async function seedDemo(ds: DataSource, password: string): Promise<boolean> {
   if ((await ds.getRepository(UserEntity).count()) > 0) return false
   const passwordHash = await hashPassword(password)
+  const glyphPaths = demoGlyphs()
   await ds.transaction(async (m: EntityManager) => {
     const team = await m.getRepository(TeamEntity).save({ name: DEMO_TEAM })
-    const users: UserEntity[] = []
+    const ids: number[] = []
     for (const a of DEMO_ACCOUNTS) {
       const user = await m.getRepository(UserEntity).save({ email: a.email, displayName: a.displayName, passwordHash })
       await m.getRepository(MembershipEntity).save({ teamId: team.id, userId: user.id, role: a.role })
-      users.push(user)
+      ids.push(user.id)
     }
-    const editor = users[1]
-    const project = await m.getRepository(ProjectEntity).save({
-      teamId: team.id,
-      name: 'Wayfinding icons',
-      description: 'Signage icons for the harbour ferry terminal: arrows, a map pin, a lift, a stair, the ferry itself.',
-      createdById: editor.id,
-    })
-    for (const p of DEMO_PATHS) {
-      const path = await m.getRepository(PathEntity).save({ projectId: project.id, name: p.name, fillRule: p.fillRule, origin: 'drawn', units: 'px' })
-      const rev = await m.getRepository(RevisionEntity).save({ pathId: path.id, number: 1, data: p.data, message: 'Drawn for the terminal signage', authorId: editor.id })
-      await m.getRepository(PathEntity).update({ id: path.id }, { currentRevisionId: rev.id })
-    }
+    const editorId = ids[1]
+    const project = (name: string, description: string) => m.getRepository(ProjectEntity).save({ teamId: team.id, name, description, createdById: editorId })
+    const icons = await project('Wayfinding icons', 'Signage icons for the harbour ferry terminal: arrows, a map pin, a lift, a stair, the ferry itself.')
+    await createPathsIn(m, icons.id, editorId, 'drawn', DEMO_PATHS.map((p) => ({ ...p, units: 'px', sourceFile: null, metadata: null })), 'Drawn for the terminal signage')
+    const glyphs = await project('Headline glyph review', 'Roboto Bold glyphs for the terminal headlines, swept at the rows a rasterizer samples.')
+    if (glyphPaths.length) await createPathsIn(m, glyphs.id, editorId, 'font', glyphPaths, 'Imported from Roboto Bold')
   })
   return true
 }

@@ -1,3 +1,5 @@
 export * from './common'
 export * from './auth'
 export * from './projects'
+export * from './library'
+export * from './compute'

@@ -46,15 +46,3 @@ export const updateProjectSchema = z
   })
   .meta({ id: 'UpdateProject' })
 export type UpdateProject = z.input<typeof updateProjectSchema>
-
-export const pathSummarySchema = z
-  .object({
-    id: z.number().int(),
-    name: z.string(),
-    fillRule: z.enum(['nonzero', 'evenodd']),
-    data: z.string().describe('SVG path data of the current revision'),
-    revisions: z.number().int(),
-    updatedAt: z.string(),
-  })
-  .meta({ id: 'PathSummary' })
-export type PathSummary = z.infer<typeof pathSummarySchema>

@@ -8,7 +8,7 @@
  */
 import svgpath from 'svgpath'
 import { convertArcToCentre } from './arc'
-import type { Segment } from './segments'
+import type { Point, Segment } from './segments'
 
 /** One subpath: segments[start .. start + count) and whether Z closed it. */
 export interface Subpath {
@@ -17,10 +17,45 @@ export interface Subpath {
   readonly closed: boolean
 }
 
-/** A path after normalisation: segment tuples and the subpaths they form. */
+/**
+ * A piece of path data that normalisation left out because all its points coincide.
+ *
+ * - `segment`: one drawing command (L, H, V, Q, C or A as svgpath made it absolute) whose
+ *   points all lie at `point`, inside a subpath that kept other segments: `subpath` is that
+ *   subpath's index in `subpaths`. A Z never makes one: its closing line is only added
+ *   when the current point is away from the start.
+ * - `contour`: a whole subpath whose drawing commands (`commands` of them, Z included) all
+ *   stayed at its start `point`, so it kept no segment and has no index in `subpaths`;
+ *   `subpathsBefore` kept subpaths precede it. A moveto with no drawing command after it
+ *   is no contour and is not recorded.
+ * In both, `segmentsBefore` kept segments precede the piece in the path data: it sat
+ * between segments[segmentsBefore − 1] and segments[segmentsBefore].
+ */
+export type DroppedPiece =
+  | {
+    readonly kind: 'segment'
+    readonly command: 'L' | 'H' | 'V' | 'Q' | 'C' | 'A'
+    readonly point: Point
+    readonly subpath: number
+    readonly segmentsBefore: number
+  }
+  | {
+    readonly kind: 'contour'
+    readonly point: Point
+    readonly commands: number
+    readonly subpathsBefore: number
+    readonly segmentsBefore: number
+  }
+
+/**
+ * A path after normalisation: segment tuples and the subpaths they form. `dropped` lists,
+ * in path-data order, the zero-length pieces the parser left out; it is present only when
+ * there was at least one, so segment and subpath indices are those of the kept pieces.
+ */
 export interface NormalisedPath {
   readonly segments: readonly Segment[]
   readonly subpaths: readonly Subpath[]
+  readonly dropped?: readonly DroppedPiece[]
 }
 
 /** Why path data was refused; `code` is the API error code. */
@@ -45,7 +80,8 @@ function refuse(message: string, position?: number): PathDataResult {
  * Parses SVG path data into normalised segments and subpaths.
  *
  * - Zero-length pieces (a line, quadratic or cubic whose points all coincide, an arc whose
- *   end points coincide) are dropped, and so are subpaths left without segments.
+ *   end points coincide) are dropped, and so are subpaths left without segments; both are
+ *   listed in `path.dropped` (see {@link DroppedPiece}), which is absent when none was.
  * - Z closes with a line when the current point is away from the subpath's start; the
  *   subpath is marked closed either way. A drawing command after Z without M starts a
  *   new subpath at the closed one's start, as SVG says.
@@ -74,20 +110,35 @@ export function parsePathData(pathData: string): PathDataResult {
   let startX = 0, startY = 0, x = 0, y = 0
   let subpathStart = 0
   let open = false
+  const dropped: DroppedPiece[] = []
+  // Zero-length pieces of the current subpath wait here until it is known whether it keeps a segment.
+  const pending: { command: 'L' | 'H' | 'V' | 'Q' | 'C' | 'A'; point: Point; segmentsBefore: number }[] = []
+  let drawingCommands = 0
   const finish = (closed: boolean): void => {
-    if (segments.length > subpathStart) subpaths.push({ start: subpathStart, count: segments.length - subpathStart, closed })
+    if (segments.length > subpathStart) {
+      for (const piece of pending) dropped.push({ kind: 'segment', ...piece, subpath: subpaths.length })
+      subpaths.push({ start: subpathStart, count: segments.length - subpathStart, closed })
+    } else if (drawingCommands > 0) {
+      dropped.push({ kind: 'contour', point: [startX, startY], commands: drawingCommands, subpathsBefore: subpaths.length, segmentsBefore: segments.length })
+    }
     subpathStart = segments.length
     open = false
+    pending.length = 0
+    drawingCommands = 0
   }
   const push = (segment: Segment): void => {
     if (!open) { subpathStart = segments.length; open = true }
     segments.push(segment)
+  }
+  const drop = (command: 'L' | 'H' | 'V' | 'Q' | 'C' | 'A'): void => {
+    pending.push({ command, point: [x, y], segmentsBefore: segments.length })
   }
   for (const command of commands) {
     const [letter, ...values] = command
     if (!values.every(Number.isFinite)) {
       return refuse(`Path data has a number that is not a finite double in its ${letter} command.`)
     }
+    if (letter !== 'M') drawingCommands++
     switch (letter) {
       case 'M':
         finish(false)
@@ -98,6 +149,7 @@ export function parsePathData(pathData: string): PathDataResult {
         const nx = letter === 'V' ? x : values[0]
         const ny = letter === 'L' ? values[1] : letter === 'V' ? values[0] : y
         if (nx !== x || ny !== y) push([x, y, nx, ny])
+        else drop(letter as 'L' | 'H' | 'V')
         x = nx
         y = ny
         break
@@ -105,6 +157,7 @@ export function parsePathData(pathData: string): PathDataResult {
       case 'Q': {
         const [x1, y1, x2, y2] = values
         if (!(x1 === x && y1 === y && x2 === x && y2 === y)) push([x, y, x1, y1, x2, y2])
+        else drop('Q')
         x = x2
         y = y2
         break
@@ -112,6 +165,7 @@ export function parsePathData(pathData: string): PathDataResult {
       case 'C': {
         const [x1, y1, x2, y2, x3, y3] = values
         if (!(x1 === x && y1 === y && x2 === x && y2 === y && x3 === x && y3 === y)) push([x, y, x1, y1, x2, y2, x3, y3])
+        else drop('C')
         x = x3
         y = y3
         break
@@ -120,6 +174,7 @@ export function parsePathData(pathData: string): PathDataResult {
         const [rx, ry, rotation, largeArc, sweep, x2, y2] = values
         const converted = convertArcToCentre(x, y, rx, ry, rotation, largeArc !== 0, sweep !== 0, x2, y2)
         if (converted.kind !== 'omitted') push(converted.segment)
+        else drop('A')
         x = x2
         y = y2
         break
@@ -135,5 +190,5 @@ export function parsePathData(pathData: string): PathDataResult {
     }
   }
   finish(false)
-  return { ok: true, path: { segments, subpaths } }
+  return { ok: true, path: dropped.length > 0 ? { segments, subpaths, dropped } : { segments, subpaths } }
 }

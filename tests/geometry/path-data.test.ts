@@ -53,6 +53,28 @@ describe('normalisation', () => {
     expect(pathOf('M0 0 C10 10 -10 10 0 0').segments).toHaveLength(1)
   })
 
+  it('lists the dropped pieces in path-data order, leaving segment and subpath indices as they were', () => {
+    const path = pathOf('M0 0 L0 0 C0 0 0 0 0 0 L5 0 M7 7 Z M8 8 A3 3 0 0 1 8 8 M9 9 L9 9 H9 V9 L10 9 Q10 9 10 9')
+    expect(path.segments).toEqual([[0, 0, 5, 0], [9, 9, 10, 9]])
+    expect(path.subpaths).toEqual([{ start: 0, count: 1, closed: false }, { start: 1, count: 1, closed: false }])
+    expect(path.dropped).toEqual([
+      { kind: 'segment', command: 'L', point: [0, 0], subpath: 0, segmentsBefore: 0 },
+      { kind: 'segment', command: 'C', point: [0, 0], subpath: 0, segmentsBefore: 0 },
+      { kind: 'contour', point: [7, 7], commands: 1, subpathsBefore: 1, segmentsBefore: 1 },
+      { kind: 'contour', point: [8, 8], commands: 1, subpathsBefore: 1, segmentsBefore: 1 },
+      { kind: 'segment', command: 'L', point: [9, 9], subpath: 1, segmentsBefore: 1 },
+      { kind: 'segment', command: 'H', point: [9, 9], subpath: 1, segmentsBefore: 1 },
+      { kind: 'segment', command: 'V', point: [9, 9], subpath: 1, segmentsBefore: 1 },
+      { kind: 'segment', command: 'Q', point: [10, 9], subpath: 1, segmentsBefore: 2 },
+    ])
+  })
+
+  it('records no dropped list when nothing was dropped, nor for a closing point written out before Z or a lone moveto', () => {
+    expect(pathOf('M0 0 L10 0 L10 10 L0 0 Z M40 40').dropped).toBeUndefined()
+    // A contour after Z without a moveto starts at the closed one's start (0, 0); Z Z makes a one-point contour there.
+    expect(pathOf('M0 0 L10 0 L10 10 Z Z').dropped).toEqual([{ kind: 'contour', point: [0, 0], commands: 1, subpathsBefore: 1, segmentsBefore: 3 }])
+  })
+
   it('keeps arcs exact (12 values) and makes a zero-radius arc a line', () => {
     const path = pathOf('M0 0 A5 5 0 0 1 10 0 A0 3 0 0 1 20 0')
     expect(path.segments[0]).toHaveLength(12)

@@ -14,8 +14,8 @@ describe('migrations', () => {
     expect(pending.upQueries.map((q) => q.query)).toEqual([])
   })
 
-  it('can be reverted and applied again', async () => {
-    await db.ds.undoLastMigration()
+  it('can all be reverted and applied again', async () => {
+    for (let i = 0; i < db.ds.migrations.length; i++) await db.ds.undoLastMigration()
     const [{ n }] = (await db.ds.query(
       "SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name = 'projects'",
     )) as Array<{ n: number }>
@@ -23,7 +23,7 @@ describe('migrations', () => {
     await db.ds.runMigrations()
     const tables = (await db.ds.query('SHOW TABLES')) as Array<Record<string, string>>
     expect(tables.map((t) => Object.values(t)[0]).sort()).toEqual(
-      expect.arrayContaining(['memberships', 'paths', 'projects', 'revisions', 'sessions', 'teams', 'users']),
+      expect.arrayContaining(['memberships', 'path_tags', 'paths', 'projects', 'revisions', 'sessions', 'teams', 'users']),
     )
   })
 })
