@@ -39,6 +39,11 @@ export interface RequestOptions<T> {
   method?: HttpMethod
   /** Sent as JSON. */
   body?: unknown
+  /**
+   * Sent as multipart/form-data (file uploads). No Content-Type header is set, so the
+   * browser writes it with the boundary; the CSRF header is sent as on any write.
+   */
+  form?: FormData
   /** Appended as a query string; undefined and empty values are left out. */
   query?: Record<string, string | number | undefined>
   /** Checks and types the JSON answer; leave out for answers without a body (204). */
@@ -124,14 +129,13 @@ async function errorFrom(response: Response): Promise<ApiRequestError> {
   })
 }
 
-/**
- * The one place that calls fetch. Resolves to the checked JSON answer (or undefined when
- * no schema is given); rejects with an ApiRequestError, or with the AbortError of `signal`.
- */
-export async function request<T = undefined>(path: string, options: RequestOptions<T> = {}): Promise<T> {
+type SendOptions = Omit<RequestOptions<unknown>, 'schema'> & { accept?: string }
+
+/** The one place that calls fetch: sends, and turns a failed or missing answer into an ApiRequestError. */
+async function send(path: string, options: SendOptions): Promise<Response> {
   const method = options.method ?? 'GET'
-  const headers: Record<string, string> = { Accept: 'application/json' }
-  if (options.body !== undefined) headers['Content-Type'] = 'application/json'
+  const headers: Record<string, string> = { Accept: options.accept ?? 'application/json' }
+  if (options.body !== undefined && options.form === undefined) headers['Content-Type'] = 'application/json'
   if (method !== 'GET' && options.withCsrf !== false && csrfToken !== null) {
     headers['X-CSRF-Token'] = csrfToken
   }
@@ -141,7 +145,7 @@ export async function request<T = undefined>(path: string, options: RequestOptio
     response = await fetch(buildUrl(path, options.query), {
       method,
       headers,
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      body: options.form ?? (options.body === undefined ? undefined : JSON.stringify(options.body)),
       credentials: 'same-origin',
       signal: options.signal,
     })
@@ -160,10 +164,20 @@ export async function request<T = undefined>(path: string, options: RequestOptio
     if (response.status === 401 && options.reportUnauthenticated !== false) unauthenticatedHandler?.()
     throw error
   }
-  if (options.schema === undefined) return undefined as T
+  return response
+}
+
+/**
+ * Resolves to the checked JSON answer (or undefined when no schema is given); rejects with
+ * an ApiRequestError, or with the AbortError of `signal`.
+ */
+export async function request<T = undefined>(path: string, options: RequestOptions<T> = {}): Promise<T> {
+  const { schema, ...sendOptions } = options
+  const response = await send(path, sendOptions)
+  if (schema === undefined) return undefined as T
 
   const json = await readJson(response)
-  const parsed = json.ok ? options.schema.safeParse(json.value) : null
+  const parsed = json.ok ? schema.safeParse(json.value) : null
   if (!parsed?.success) {
     throw new ApiRequestError(
       response.status,
@@ -172,4 +186,53 @@ export async function request<T = undefined>(path: string, options: RequestOptio
     )
   }
   return parsed.data
+}
+
+/**
+ * How long the temporary object URL of a download stays valid after the click: the browser
+ * reads it asynchronously, so revoking at once can cancel the download (common practice).
+ */
+export const DOWNLOAD_URL_LIFETIME_MS = 60_000
+
+/** The file name of a Content-Disposition header (RFC 6266: `filename*` first, then `filename`). */
+export function fileNameFromDisposition(header: string | null): string | null {
+  if (header === null) return null
+  const extended = /filename\*\s*=\s*(?:UTF-8|utf-8)''([^;]+)/.exec(header)
+  if (extended) {
+    try {
+      return decodeURIComponent(extended[1].trim().replace(/^"|"$/g, '')) || null
+    } catch {
+      // A malformed escape: fall through to the plain parameter.
+    }
+  }
+  const plain = /filename\s*=\s*("([^"]*)"|[^;]+)/.exec(header)
+  const name = plain ? (plain[2] ?? plain[1]).trim() : ''
+  return name || null
+}
+
+/**
+ * Downloads a file answer (an export) and hands it to the browser's save flow through a
+ * temporary `<a download>`. Resolves to the file name used; errors as for `request`.
+ */
+export async function download(
+  path: string,
+  options: { query?: RequestOptions<unknown>['query']; fallbackName: string; signal?: AbortSignal },
+): Promise<string> {
+  const response = await send(path, { query: options.query, signal: options.signal, accept: '*/*' })
+  const blob = await response.blob()
+  const fileName = fileNameFromDisposition(response.headers.get('Content-Disposition')) ?? options.fallbackName
+  const url = URL.createObjectURL(blob)
+  const link = document.createElement('a')
+  link.href = url
+  link.download = fileName
+  link.rel = 'noopener'
+  link.style.display = 'none'
+  document.body.append(link)
+  try {
+    link.click()
+  } finally {
+    link.remove()
+    setTimeout(() => URL.revokeObjectURL(url), DOWNLOAD_URL_LIFETIME_MS)
+  }
+  return fileName
 }

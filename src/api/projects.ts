@@ -1,18 +1,13 @@
-import { z } from 'zod'
 import {
-  pathSummarySchema,
   projectPageSchema,
   projectSchema,
   type CreateProject,
-  type PathSummary,
   type Project,
   type ProjectListQuery,
   type ProjectPage,
   type UpdateProject,
 } from '../../shared/api'
 import { request } from './http'
-
-const pathListSchema = z.array(pathSummarySchema)
 
 /** One page of a team's projects, paged, sorted and filtered by the server. */
 export function listProjects(teamId: number, query: ProjectListQuery, signal?: AbortSignal): Promise<ProjectPage> {
@@ -40,9 +35,4 @@ export function updateProject(projectId: number, patch: UpdateProject): Promise<
 /** Deletes a project with its library (owner only). */
 export function deleteProject(projectId: number): Promise<void> {
   return request(`/projects/${projectId}`, { method: 'DELETE' })
-}
-
-/** The paths of a project's library, each with its current revision's path data. */
-export function listProjectPaths(projectId: number): Promise<PathSummary[]> {
-  return request(`/projects/${projectId}/paths`, { schema: pathListSchema })
 }

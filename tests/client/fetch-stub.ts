@@ -12,6 +12,8 @@ export interface RecordedCall {
   /** Header names in lower case. */
   headers: Record<string, string>
   body: unknown
+  /** A multipart body (uploads), as sent. */
+  form: FormData | undefined
   credentials: RequestCredentials | undefined
 }
 
@@ -55,6 +57,7 @@ export function stubFetch(routes: Record<string, StubHandler>) {
         query: parsed.searchParams,
         headers,
         body: typeof init.body === 'string' ? (JSON.parse(init.body) as unknown) : undefined,
+        form: init.body instanceof FormData ? init.body : undefined,
         credentials: init.credentials,
       }
       calls.push(call)

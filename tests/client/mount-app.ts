@@ -1,7 +1,8 @@
 import { enableAutoUnmount, flushPromises, mount } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { afterEach } from 'vitest'
-import type { Component } from 'vue'
+import { h, type Component } from 'vue'
+import { VApp } from 'vuetify/components'
 import { createMemoryHistory } from 'vue-router'
 import { createAppVuetify } from '../../src/plugins/vuetify'
 import { createAppRouter } from '../../src/router'
@@ -29,6 +30,22 @@ export async function mountAt(component: Component, path: string) {
   await app.router.push(path)
   await app.router.isReady()
   const wrapper = mount(component, { global: { plugins: [app.pinia, app.router, app.vuetify] } })
+  await settle()
+  return { ...app, wrapper }
+}
+
+/**
+ * As `mountAt`, inside a `<v-app>`: for views with layout parts of their own (navigation
+ * drawers need the app layout, as they have under App.vue).
+ */
+export async function mountInAppAt(component: Component, path: string) {
+  const app = createTestApp()
+  await app.router.push(path)
+  await app.router.isReady()
+  const wrapper = mount({ render: () => h(VApp, null, { default: () => h(component) }) }, {
+    global: { plugins: [app.pinia, app.router, app.vuetify] },
+    attachTo: document.body,
+  })
   await settle()
   return { ...app, wrapper }
 }
