@@ -97,6 +97,6 @@ export async function launchBrowser(): Promise<Browser> {
 
 export async function screenshot(page: Page, name: string): Promise<string> {
   const file = join(SCREENSHOT_DIR, `${name}.png`)
-  await page.screenshot({ path: file, fullPage: true })
+  await page.screenshot({ path: file })
   return file
 }

@@ -1,0 +1,94 @@
+import { join } from 'node:path'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { PathEntity } from '../../server/entities/path.entity'
+import { RevisionEntity } from '../../server/entities/revision.entity'
+import { seedTestData, TEST_PASSWORD } from '../helpers/test-app'
+import { createTestDatabase, type TestDatabase } from '../helpers/test-db'
+import { launchBrowser, screenshot, serveApp, type Browser, type RunningApp } from './browser'
+
+let db: TestDatabase
+let app: RunningApp
+let browser: Browser
+let page: Page
+let projectId: number
+
+beforeAll(async () => {
+  db = await createTestDatabase()
+  await seedTestData(db.ds)
+  app = await serveApp(db)
+  browser = await launchBrowser()
+  const ctx = await browser.newContext()
+  page = await ctx.newPage()
+  await page.goto(`${app.baseUrl}/sign-in`)
+  await page.locator('[data-testid="sign-in-email"] input').fill('editor@example.com')
+  await page.locator('[data-testid="sign-in-password"] input').fill(TEST_PASSWORD)
+  await page.locator('[data-testid="sign-in-submit"]').click()
+  await page.waitForURL(/\/projects$/)
+  const [{ id }] = (await db.ds.query("SELECT id FROM projects WHERE name = 'Wayfinding icons'")) as Array<{ id: number }>
+  projectId = Number(id)
+})
+afterAll(async () => {
+  await browser?.close()
+  await app?.close()
+  await db?.drop()
+})
+
+describe('the library in Chromium', () => {
+  it('shows the seeded icons with thumbnails drawn from their segments', async () => {
+    await page.goto(`${app.baseUrl}/projects/${projectId}/library`)
+    const table = page.locator('[data-testid="library-table"]')
+    await table.getByText('Crossing knot').waitFor()
+    expect(await table.locator('svg path').count()).toBeGreaterThanOrEqual(10)
+    await screenshot(page, '10-library')
+  })
+
+  it('uploads an SVG, previews what it found, imports it and lists the new paths', async () => {
+    await page.locator('[data-testid="library-upload-svg"]').click()
+    await page.locator('[data-testid="svg-file-input"]').setInputFiles(join(__dirname, '..', 'server', 'fixtures', 'harbour-signs.svg'))
+    const preview = page.locator('[data-testid="svg-preview-list"]')
+    await preview.getByText('quay-plate').waitFor()
+    expect(await preview.innerText()).toContain('bollard')
+    await page.waitForTimeout(300) // let the dialog settle before the picture
+    await screenshot(page, '11-svg-preview')
+    // The uploaded file itself is never put on the page: no script text, no <img> or object of it.
+    expect(await page.evaluate(() => document.documentElement.innerHTML.includes('harbour-secret-marker'))).toBe(false)
+    await page.locator('[data-testid="svg-import-confirm"]').click()
+    await page.locator('[data-testid="library-table"]').getByText('quay-plate').waitFor()
+    const rows = await db.ds.getRepository(PathEntity).findBy({ sourceFile: 'harbour-signs.svg' })
+    expect(rows.map((r) => r.name).sort()).toEqual(['bollard', 'jetty', 'quay-plate'])
+    expect(rows.every((r) => r.origin === 'svg')).toBe(true)
+    await screenshot(page, '12-library-after-import')
+  })
+
+  it('opens the history after an edit and restores the first revision as a new one', async () => {
+    const jetty = await db.ds.getRepository(PathEntity).findOneByOrFail({ name: 'jetty', sourceFile: 'harbour-signs.svg' })
+    const first = await db.ds.getRepository(RevisionEntity).findOneByOrFail({ pathId: jetty.id, number: 1 })
+    const edit = await page.evaluate(async (id) => {
+      const me = await (await fetch('/api/v1/auth/me')).json()
+      const res = await fetch(`/api/v1/paths/${id}/revisions`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': me.csrfToken },
+        body: JSON.stringify({ data: 'M4 40 L20 8 L36 40 L20 30 Z', message: 'Notched jetty' }),
+      })
+      return res.status
+    }, jetty.id)
+    expect(edit).toBe(201)
+    await page.reload()
+    await page.locator(`[data-testid="library-open-${jetty.id}"]`).click()
+    const history = page.locator('[data-testid="path-history"]')
+    await history.getByText('Notched jetty').waitFor()
+    await page.waitForTimeout(300)
+    await screenshot(page, '13-path-history')
+    await page.locator('[data-testid="revision-restore-1"]').click()
+    await history.getByText('Restored revision 1').waitFor()
+    const latest = await db.ds.getRepository(RevisionEntity).findOneByOrFail({ pathId: jetty.id, number: 3 })
+    expect(latest.data).toBe(first.data)
+    expect(await db.ds.getRepository(RevisionEntity).countBy({ pathId: jetty.id })).toBe(3)
+    await screenshot(page, '14-path-restored')
+  })
+
+  it('loaded nothing from outside 127.0.0.1 and logged no errors', () => {
+    expect(browser.problems).toEqual([])
+  })
+})
