@@ -1,3 +1,4 @@
+import { createRequire } from 'node:module'
 import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -86,6 +87,25 @@ describe('the library in Chromium', () => {
     expect(latest.data).toBe(first.data)
     expect(await db.ds.getRepository(RevisionEntity).countBy({ pathId: jetty.id })).toBe(3)
     await screenshot(page, '14-path-restored')
+  })
+
+  it('imports glyphs from a WOFF2 font (Roboto Regular, npm package @fontsource/roboto) after a preview', async () => {
+    const woff2 = createRequire(import.meta.url).resolve('@fontsource/roboto/files/roboto-latin-400-normal.woff2')
+    await page.locator('[data-testid="path-drawer-close"]').click()
+    await page.locator('[data-testid="library-import-font"]').click()
+    await page.locator('[data-testid="font-file-input"]').setInputFiles(woff2)
+    await page.locator('[data-testid="font-text-input"] input').fill('Qe')
+    await page.locator('[data-testid="font-preview-button"]').click()
+    const glyphs = page.locator('[data-testid="font-preview-list"]')
+    await page.locator('[data-testid="font-glyph-81"]').waitFor()
+    expect(await glyphs.locator('svg path').count()).toBeGreaterThanOrEqual(2)
+    await page.waitForTimeout(300)
+    await screenshot(page, '15-font-preview')
+    await page.locator('[data-testid="font-import-confirm"]').click()
+    await page.locator('[data-testid="library-table"]').getByText(/^Q/).first().waitFor()
+    const q = await db.ds.getRepository(PathEntity).findOneByOrFail({ projectId, origin: 'font', sourceFile: 'roboto-latin-400-normal.woff2', name: 'Q (U+0051)' })
+    expect(q.units).toBe('font units')
+    expect(q.metadata).toMatchObject({ unitsPerEm: 2048, codePoint: 0x51 })
   })
 
   it('loaded nothing from outside 127.0.0.1 and logged no errors', () => {
