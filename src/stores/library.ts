@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, readonly, ref, shallowRef } from 'vue'
-import type { Bundle, ImportPaths, PathListItem, Project, pathSortKeys, ORIGINS } from '../../shared/api'
+import type { Bundle, ImportPaths, PathListItem, PathPage, Project, pathSortKeys, ORIGINS } from '../../shared/api'
+import { useLatestPage } from '../composables/useLatestPage'
 import {
   bulkPaths,
   emptyTrash,
@@ -51,8 +52,6 @@ const NO_FILTERS: PathFilters = { text: '', tag: null, origin: null, warnings: n
  */
 export const useLibraryStore = defineStore('library', () => {
   const projectId = ref<number | null>(null)
-  const items = ref<PathListItem[]>([])
-  const total = ref(0)
   const tags = ref<string[]>([])
   const page = ref(1)
   const pageSize = ref<number>(PATH_PAGE_SIZES[1])
@@ -60,8 +59,6 @@ export const useLibraryStore = defineStore('library', () => {
   const order = ref<SortOrder>('asc')
   const filters = ref<PathFilters>({ ...NO_FILTERS })
   const isTrash = ref(false)
-  const isLoading = ref(false)
-  const error = shallowRef<ApiRequestError | null>(null)
 
   const copyTargets = ref<Project[]>([])
   const copyTargetsTotal = ref(0)
@@ -86,41 +83,15 @@ export const useLibraryStore = defineStore('library', () => {
     return f.text.trim() !== '' || f.tag !== null || f.origin !== null || f.warnings !== null
   })
 
-  // Answers may arrive out of order while someone types or pages quickly: only the latest counts.
-  let latestRequest = 0
-  let listAbort: AbortController | null = null
-
-  async function load(): Promise<void> {
-    const ticket = ++latestRequest
-    listAbort?.abort()
-    if (projectId.value === null) {
-      items.value = []
-      total.value = 0
-      isLoading.value = false
-      return
-    }
-    const abort = new AbortController()
-    listAbort = abort
-    isLoading.value = true
-    error.value = null
-    try {
-      const result = await listPaths(projectId.value, query.value, abort.signal)
-      if (ticket !== latestRequest) return
-      items.value = result.items
-      total.value = result.total
+  const list = useLatestPage<PathListItem, PathPage>({
+    page,
+    pageSize,
+    fetchPage: (signal) => (projectId.value === null ? null : listPaths(projectId.value, query.value, signal)),
+    onPage: (result) => {
       tags.value = result.tags
-      const lastPage = Math.max(1, Math.ceil(result.total / pageSize.value))
-      // After a trash or a narrower filter the page may lie past the end: show the last one.
-      if (result.items.length === 0 && page.value > lastPage) page.value = lastPage
-    } catch (cause) {
-      if (ticket !== latestRequest) return
-      error.value = toApiRequestError(cause)
-      items.value = []
-      total.value = 0
-    } finally {
-      if (ticket === latestRequest) isLoading.value = false
-    }
-  }
+    },
+  })
+  const { items, total, isLoading, error, load } = list
 
   /** Opens another project's library: first page, no filters, not the trash. */
   function setProject(id: number | null): void {

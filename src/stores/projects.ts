@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, readonly, ref, shallowRef } from 'vue'
-import type { CreateProject, Project, ProjectListQuery, UpdateProject } from '../../shared/api'
+import type { CreateProject, Project, ProjectListQuery, ProjectPage, UpdateProject } from '../../shared/api'
+import { useLatestPage } from '../composables/useLatestPage'
 import { createProject, deleteProject, getProject, listProjects, updateProject } from '../api/projects'
 import { toApiRequestError, type ApiRequestError } from '../api/http'
 
@@ -24,16 +25,11 @@ export interface ProjectTableOptions {
  */
 export const useProjectsStore = defineStore('projects', () => {
   const teamId = ref<number | null>(null)
-  const items = ref<Project[]>([])
-  const total = ref(0)
   const page = ref(1)
   const pageSize = ref<number>(PROJECT_PAGE_SIZES[0])
   const sort = ref<ProjectSortKey>('name')
   const order = ref<SortOrder>('asc')
   const filter = ref('')
-  const isLoading = ref(false)
-  const error = shallowRef<ApiRequestError | null>(null)
-
   const current = ref<Project | null>(null)
   const isLoadingCurrent = ref(false)
   const currentError = shallowRef<ApiRequestError | null>(null)
@@ -48,40 +44,12 @@ export const useProjectsStore = defineStore('projects', () => {
   }))
   const queryKey = computed(() => JSON.stringify([teamId.value, query.value]))
 
-  // Answers may arrive out of order while someone types or pages quickly: only the latest counts.
-  let latestListRequest = 0
-  let listAbort: AbortController | null = null
-
-  async function load(): Promise<void> {
-    const ticket = ++latestListRequest
-    listAbort?.abort()
-    if (teamId.value === null) {
-      items.value = []
-      total.value = 0
-      isLoading.value = false
-      return
-    }
-    const abort = new AbortController()
-    listAbort = abort
-    isLoading.value = true
-    error.value = null
-    try {
-      const result = await listProjects(teamId.value, query.value, abort.signal)
-      if (ticket !== latestListRequest) return
-      items.value = result.items
-      total.value = result.total
-      const lastPage = Math.max(1, Math.ceil(result.total / pageSize.value))
-      // After a delete or a narrower filter the page may lie past the end: show the last one.
-      if (result.items.length === 0 && page.value > lastPage) page.value = lastPage
-    } catch (cause) {
-      if (ticket !== latestListRequest) return
-      error.value = toApiRequestError(cause)
-      items.value = []
-      total.value = 0
-    } finally {
-      if (ticket === latestListRequest) isLoading.value = false
-    }
-  }
+  const list = useLatestPage<Project, ProjectPage>({
+    page,
+    pageSize,
+    fetchPage: (signal) => (teamId.value === null ? null : listProjects(teamId.value, query.value, signal)),
+  })
+  const { items, total, isLoading, error, load } = list
 
   /** Switches to another team's projects, from the first page. */
   function setTeam(id: number | null): void {
