@@ -5,8 +5,11 @@
  */
 import { solveCubicInIntervalInto } from '../solve-cubic'
 import { solveQuadraticInto } from '../solve-quadratic'
+import { DELICATE_CUBIC, OPEN_WINDOW, solveBernsteinCubicFastInto, writeFour } from './bernstein-cubic-fast'
 
 const scratch = new Float64Array(4)
+/** Bernstein coefficients handed to the fast path (module-level scratch). */
+const sides = new Float64Array(4)
 
 function keepInUnitInterval(count: number, source: Float64Array, slack: number, out: Float64Array): number {
   let written = 0
@@ -25,8 +28,25 @@ function keepInUnitInterval(count: number, source: Float64Array, slack: number, 
  * coefficients f0..f3, ascending and distinct, written into out; returns the count.
  * An identically zero polynomial has no roots reported (the caller treats it as lying
  * along the line), nor has one whose coefficients overflowed.
+ * Staged: the fast closed form of internal/bernstein-cubic-fast.ts answers the cases its
+ * error bounds call safe (no root near t = 0 or 1 there, so the slack never matters); the
+ * rest goes to the careful solver {@link solveCubicInIntervalInto}.
  */
 export function solveBernsteinCubicInto(
+  f0: number, f1: number, f2: number, f3: number, slack: number, out: Float64Array,
+): number {
+  writeFour(sides, f0, f1, f2, f3)
+  const fast = solveBernsteinCubicFastInto(sides, OPEN_WINDOW, out)
+  if (fast !== DELICATE_CUBIC) return fast
+  return solveBernsteinCubicCarefullyInto(f0, f1, f2, f3, slack, out)
+}
+
+/**
+ * The careful path of {@link solveBernsteinCubicInto} alone (the closed-form solver with
+ * scaling, multiplicities and compensated polish), for delicate cases and for tests that
+ * compare the two paths.
+ */
+export function solveBernsteinCubicCarefullyInto(
   f0: number, f1: number, f2: number, f3: number, slack: number, out: Float64Array,
 ): number {
   const a = f3 - 3 * f2 + 3 * f1 - f0

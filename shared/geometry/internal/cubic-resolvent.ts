@@ -33,7 +33,7 @@ const u = UNIT_ROUNDOFF
  * terms: each of P, R, S is within 3u|X|₊, so 4P̂Ŝ is within 28u|P|₊|S|₊ and R̂² within
  * 7u|R|₊², and the last subtraction adds u: 8u in all; 9u covers the bound's own rounding.
  */
-const DISCRIMINANT_DOUBLE_BOUND = 9 * u
+export const DISCRIMINANT_DOUBLE_BOUND = 9 * u
 /**
  * The same bound for the discriminant from error-free products: P, R, S are then within
  * 5u²|X|₊ (only the low-order sums round), which gives 10u² through 4PS and R², plus about

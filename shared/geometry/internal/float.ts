@@ -71,7 +71,7 @@ function scaleByFarPowerOfTwo(x: number, n: number): number {
 }
 
 /** Veltkamp–Dekker splitting constant 2^27 + 1 for binary64. */
-const SPLITTER = 134217729
+export const SPLITTER = 134217729
 
 /**
  * The rounding error of p = fl(a·b): a·b = p + productError(a, b, p) exactly (Dekker 1971,
