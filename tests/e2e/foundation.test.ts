@@ -55,12 +55,14 @@ describe('the foundation in Chromium', () => {
     await signInThroughForm(page, 'editor@example.com')
     await screenshot(page, '03-projects-editor')
     await page.locator('[data-testid="new-project-button"]').click()
+    // The dialog focuses its name field when its entrance ends; typing before that could land in the wrong field.
+    await page.waitForFunction(() => document.activeElement?.closest('[data-testid="project-name-input"]') != null)
     await page.locator('[data-testid="project-name-input"] input').fill('Ferry timetable numerals')
     await page.locator('[data-testid="project-description-input"] textarea').first().fill('Tabular figures for the departure board')
     await page.waitForTimeout(400) // let the dialog's entrance transition finish
     await screenshot(page, '04-new-project-dialog')
     await page.locator('[data-testid="create-project-confirm"]').click()
-    await page.locator('[data-testid="projects-table"]').getByText('Ferry timetable numerals').waitFor()
+    await page.locator('[data-testid="projects-table"]').getByText('Ferry timetable numerals', { exact: true }).waitFor()
     await screenshot(page, '05-project-created')
     const row = await db.ds.getRepository(ProjectEntity).findOneBy({ name: 'Ferry timetable numerals' })
     expect(row?.description).toBe('Tabular figures for the departure board')
