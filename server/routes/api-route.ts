@@ -103,9 +103,10 @@ function parsePart<T extends z.ZodType>(schema: T | undefined, value: unknown, w
 
 const SAFE_METHODS = new Set(['get', 'head', 'options'])
 
-function readUpload(u: NonNullable<RouteSpec['upload']>, req: Request, res: Response): Promise<void> {
+/** A multer reader for one route's upload, built once when the route is added. */
+function uploadReader(u: NonNullable<RouteSpec['upload']>): (req: Request, res: Response) => Promise<void> {
   const handler = multer({ storage: multer.memoryStorage(), limits: { files: u.maxFiles, fileSize: u.maxBytes, fields: 20, fieldSize: 64 * 1024 } }).array(u.field, u.maxFiles)
-  return new Promise((resolve, reject) => handler(req, res, (err?: unknown) => (err ? reject(err) : resolve())))
+  return (req, res) => new Promise((resolve, reject) => handler(req, res, (err?: unknown) => (err ? reject(err) : resolve())))
 }
 
 /**
@@ -122,6 +123,7 @@ export function createApiRegistry(
     add(spec) {
       routes.push(spec as unknown as RouteSpec)
       const checkCsrf = spec.csrf !== false && !SAFE_METHODS.has(spec.method)
+      const readUpload = spec.upload ? uploadReader(spec.upload) : undefined
       router[spec.method](spec.path, ...(spec.middleware ?? []), async (req: Request, res: Response, _next: NextFunction) => {
         const user = req.auth?.user
         let role: Role | undefined
@@ -139,7 +141,7 @@ export function createApiRegistry(
             if (!roleAllows(role, permission)) throw forbidden()
           }
         }
-        if (spec.upload) await readUpload(spec.upload, req, res)
+        if (readUpload) await readUpload(req, res)
         const params = parsePart(spec.params, req.params, 'params')
         const query = parsePart(spec.query, req.query, 'query')
         const body = parsePart(spec.body, req.body ?? {}, 'body')

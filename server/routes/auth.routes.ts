@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm'
 import { z } from 'zod'
 import { loginRequestSchema, sessionInfoSchema } from '../../shared/api/auth'
 import { newCsrfToken } from '../middleware/authenticate'
-import { sessionInfo, verifyCredentials } from '../services/auth.service'
+import { sessionInfo, teamsOf, verifyCredentials } from '../services/auth.service'
 import type { ApiRegistry } from './api-route'
 
 function regenerate(req: Parameters<RequestHandler>[0]): Promise<void> {
@@ -68,6 +68,6 @@ export function authRoutes(api: ApiRegistry, ds: DataSource, loginLimiter: Reque
     summary: 'The teams of the signed-in person, with their role in each',
     access: { permission: 'signedIn', scope: 'none' },
     response: z.array(sessionInfoSchema.shape.teams.element),
-    handler: async ({ user }) => (await sessionInfo(ds, user, '')).teams,
+    handler: async ({ user }) => teamsOf(ds, user.id),
   })
 }

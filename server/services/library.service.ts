@@ -17,6 +17,7 @@ import { PathTagEntity } from '../entities/path-tag.entity'
 import { ProjectEntity } from '../entities/project.entity'
 import { RevisionEntity } from '../entities/revision.entity'
 import { HttpError, notFound } from '../errors/http-error'
+import { containsPattern } from './sql-like'
 import { analysePathData, type PathAnalysis } from './path-analysis'
 
 const DAY_MS = 86_400_000
@@ -132,10 +133,6 @@ function toListItem(r: Row, tags: string[]): PathListItem {
 
 const sortColumns = { name: 'p.name', updatedAt: 'p.updatedAt', segments: 'p.segmentCount', warnings: 'p.warningCount', origin: 'p.origin' } as const
 
-function likePattern(text: string): string {
-  return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
-}
-
 /** Paths older than this in the trash are gone for good; they are never listed or restored. */
 function trashCutoff(now = Date.now()): Date {
   return new Date(now - TRASH_DAYS * DAY_MS)
@@ -146,7 +143,7 @@ export async function listPaths(ds: DataSource, projectId: number, q: z.output<t
   const qb = baseQuery(m).where('p.projectId = :projectId', { projectId })
   if (q.trash === '1') qb.andWhere('p.deletedAt IS NOT NULL AND p.deletedAt >= :cutoff', { cutoff: trashCutoff() })
   else qb.andWhere('p.deletedAt IS NULL')
-  if (q.q) qb.andWhere('p.name LIKE :pattern', { pattern: likePattern(q.q) })
+  if (q.q) qb.andWhere('p.name LIKE :pattern', { pattern: containsPattern(q.q) })
   if (q.origin) qb.andWhere('p.origin = :origin', { origin: q.origin })
   if (q.warnings === 'with') qb.andWhere('p.warningCount > 0')
   if (q.warnings === 'without') qb.andWhere('p.warningCount = 0')

@@ -3,6 +3,7 @@ import type { CreateProject, Project, ProjectListQuery, ProjectPage } from '../.
 import { PathEntity } from '../entities/path.entity'
 import { ProjectEntity } from '../entities/project.entity'
 import { notFound } from '../errors/http-error'
+import { containsPattern } from './sql-like'
 
 interface ProjectRow {
   id: number
@@ -19,7 +20,7 @@ const sortColumns: Record<ProjectListQuery['sort'], string> = {
   name: 'p.name',
   createdAt: 'p.createdAt',
   updatedAt: 'p.updatedAt',
-  pathCount: '"pathCount"',
+  pathCount: 'pathCount', // the alias of the counting subquery
 }
 
 function toProject(r: ProjectRow): Project {
@@ -52,18 +53,13 @@ function projectQuery(ds: DataSource) {
     .addSelect((sub) => sub.select('COUNT(*)').from(PathEntity, 'x').where('x.projectId = p.id'), 'pathCount')
 }
 
-/** `%` and `_` typed by a person are literal characters, not LIKE wildcards. */
-function likePattern(text: string): string {
-  return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`
-}
-
 export async function listProjects(ds: DataSource, teamId: number, q: ProjectListQuery): Promise<ProjectPage> {
   const base = projectQuery(ds).where('p.teamId = :teamId', { teamId })
-  if (q.q) base.andWhere('p.name LIKE :pattern', { pattern: likePattern(q.q) })
+  if (q.q) base.andWhere('p.name LIKE :pattern', { pattern: containsPattern(q.q) })
   const total = await base.clone().getCount()
   const order = q.order === 'asc' ? 'ASC' : 'DESC'
   const rows = await base
-    .orderBy(q.sort === 'pathCount' ? 'pathCount' : sortColumns[q.sort], order)
+    .orderBy(sortColumns[q.sort], order)
     .addOrderBy('p.id', order)
     .offset((q.page - 1) * q.pageSize)
     .limit(q.pageSize)

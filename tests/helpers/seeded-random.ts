@@ -19,15 +19,20 @@ export interface SeededRandom {
   pick<T>(items: readonly T[]): T
 }
 
-export function createSeededRandom(seed: number): SeededRandom {
+/** The mulberry32 stream of 32-bit unsigned integers for a seed. */
+export function createMulberry32(seed: number): () => number {
   let state = seed >>> 0
-  const next32 = (): number => {
+  return () => {
     state = (state + 0x6d2b79f5) >>> 0
     let t = state
     t = Math.imul(t ^ (t >>> 15), t | 1)
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
     return (t ^ (t >>> 14)) >>> 0
   }
+}
+
+export function createSeededRandom(seed: number): SeededRandom {
+  const next32 = createMulberry32(seed)
   const next = (): number => ((next32() >>> 5) * 67108864 + (next32() >>> 6)) / 9007199254740992
   const random: SeededRandom = {
     seed,

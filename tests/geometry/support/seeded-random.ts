@@ -1,16 +1,12 @@
+import { createMulberry32 } from '../../helpers/seeded-random'
+
 /**
- * Seeded pseudo-random numbers for tests and the benchmark (mulberry32, a public-domain
- * 32-bit generator; common practice for reproducible test data). Never Math.random.
+ * Seeded uniform numbers in [0, 1) with 32 random bits, for tests and the benchmark (the
+ * same mulberry32 stream as tests/helpers/seeded-random.ts). Never Math.random.
  */
 export function createRandom(seed: number): () => number {
-  let state = seed >>> 0
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0
-    let z = state
-    z = Math.imul(z ^ (z >>> 15), z | 1)
-    z ^= z + Math.imul(z ^ (z >>> 7), z | 61)
-    return ((z ^ (z >>> 14)) >>> 0) / 4294967296
-  }
+  const next32 = createMulberry32(seed)
+  return () => next32() / 4294967296
 }
 
 /**
