@@ -59,6 +59,7 @@ describe('the library in Chromium', () => {
     const rows = await db.ds.getRepository(PathEntity).findBy({ sourceFile: 'harbour-signs.svg' })
     expect(rows.map((r) => r.name).sort()).toEqual(['bollard', 'jetty', 'quay-plate'])
     expect(rows.every((r) => r.origin === 'svg')).toBe(true)
+    await page.locator('[data-testid="svg-import-dialog"]').waitFor({ state: 'hidden' })
     await screenshot(page, '12-library-after-import')
   })
 
