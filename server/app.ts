@@ -18,11 +18,13 @@ import { createApiRegistry, type ApiRegistry } from './routes/api-route'
 import { authRoutes } from './routes/auth.routes'
 import { computeRoutes } from './routes/compute.routes'
 import { libraryRoutes } from './routes/library.routes'
+import { probeSetRoutes } from './routes/probe-sets.routes'
 import { projectRoutes } from './routes/projects.routes'
 import { systemRoutes } from './routes/system.routes'
 import { roleInTeam } from './services/auth.service'
 import { projectTeamId } from './services/projects.service'
 import { pathTeamId } from './services/library.service'
+import { probeSetTeamId } from './services/probe-sets.service'
 
 const here = dirname(fileURLToPath(import.meta.url))
 export const ROOT_DIR = join(here, '..')
@@ -102,14 +104,16 @@ export function createApp(deps: AppDeps): RootcastApp {
       next(new HttpError(429, 'rate_limited', 'Too many failed sign-in attempts. Wait a few minutes and try again.')),
   })
 
+  const teamLookups = { project: projectTeamId, path: pathTeamId, probeSet: probeSetTeamId } as const
   const registry = createApiRegistry(api, {
-    teamOf: (scope, id) => (scope === 'project' ? projectTeamId(ds, id) : pathTeamId(ds, id)),
+    teamOf: (scope, id) => teamLookups[scope](ds, id),
     membership: (userId, teamId) => roleInTeam(ds, userId, teamId),
   })
   authRoutes(registry, ds, loginLimiter)
   projectRoutes(registry, ds)
   computeRoutes(registry)
   libraryRoutes(registry, ds)
+  probeSetRoutes(registry, ds)
   let openApi: unknown
   systemRoutes(registry, ds, () => (openApi ??= buildOpenApiDocument(registry.routes, { version: readPackageVersion() })))
 

@@ -3,15 +3,17 @@ import { DataSource } from 'typeorm'
 import { MembershipEntity } from './entities/membership.entity'
 import { PathEntity } from './entities/path.entity'
 import { PathTagEntity } from './entities/path-tag.entity'
+import { ProbeSetEntity } from './entities/probe-set.entity'
 import { ProjectEntity } from './entities/project.entity'
 import { RevisionEntity } from './entities/revision.entity'
 import { TeamEntity } from './entities/team.entity'
 import { UserEntity } from './entities/user.entity'
 import { Initial1764633600000 } from './migrations/1764633600000-initial'
 import { Library1764720000000 } from './migrations/1764720000000-library'
+import { ProbeSets1764806400000 } from './migrations/1764806400000-probe-sets'
 
-export const entities = [UserEntity, TeamEntity, MembershipEntity, ProjectEntity, PathEntity, RevisionEntity, PathTagEntity]
-export const migrations = [Initial1764633600000, Library1764720000000]
+export const entities = [UserEntity, TeamEntity, MembershipEntity, ProjectEntity, PathEntity, RevisionEntity, PathTagEntity, ProbeSetEntity]
+export const migrations = [Initial1764633600000, Library1764720000000, ProbeSets1764806400000]
 
 /** A MariaDB data source for the given URL. Schema changes come only from migrations. */
 export function createDataSource(url: string): DataSource {

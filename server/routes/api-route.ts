@@ -8,11 +8,11 @@ import type { AuthenticatedUser } from '../middleware/authenticate'
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 
-/** Where a route finds the team whose role decides: a `teamId`, `projectId` or `pathId` URL parameter. */
-export type Scope = 'none' | 'team' | 'project' | 'path'
+/** Where a route finds the team whose role decides: a `teamId`, `projectId`, `pathId` or `probeSetId` URL parameter. */
+export type Scope = 'none' | 'team' | 'project' | 'path' | 'probeSet'
 
-const scopeParam = { team: 'teamId', project: 'projectId', path: 'pathId' } as const
-const scopeNoun = { team: 'That team', project: 'That project', path: 'That path' } as const
+const scopeParam = { team: 'teamId', project: 'projectId', path: 'pathId', probeSet: 'probeSetId' } as const
+const scopeNoun = { team: 'That team', project: 'That project', path: 'That path', probeSet: 'That probe set' } as const
 
 export interface RouteContext<P, Q, B> {
   params: P
@@ -69,8 +69,8 @@ export interface RouteSpec<
   handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<DeepReadonly<z.input<R>> | void>
 }
 
-/** Resolves the team a project or path belongs to; set by the app so the route layer stays generic. */
-export type TeamLookup = (scope: 'project' | 'path', id: number) => Promise<number | undefined>
+/** Resolves the team a project, path or probe set belongs to; set by the app so the route layer stays generic. */
+export type TeamLookup = (scope: Exclude<Scope, 'none' | 'team'>, id: number) => Promise<number | undefined>
 export type MembershipLookup = (userId: number, teamId: number) => Promise<Role | undefined>
 
 export interface ApiRegistry {

@@ -21,6 +21,8 @@ export const permissions = {
   'library.write': ['owner', 'editor'],
   /** Empty the trash for good. */
   'library.purge': ['owner'],
+  /** Create, change and delete probe sets (reading them is library.read). */
+  'probeSet.write': ['owner', 'editor'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof permissions

@@ -2,14 +2,17 @@ import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
 import type { DataSource, EntityManager } from 'typeorm'
 import type { Role } from '../../shared/api/common'
+import type { ProbeSetSweep } from '../../shared/api/probe-sets'
 import { MembershipEntity } from '../entities/membership.entity'
 import type { FillRule } from '../entities/path.entity'
 import { ProjectEntity } from '../entities/project.entity'
+import { RevisionEntity } from '../entities/revision.entity'
 import { TeamEntity } from '../entities/team.entity'
 import { UserEntity } from '../entities/user.entity'
 import { hashPassword } from './auth.service'
 import { importGlyphs } from './import/font-import'
 import { createPathsIn, type PathInput } from './library.service'
+import { insertProbeSetIn, type ProbeSetInput } from './probe-sets.service'
 
 /** The invented demo studio; the three addresses are fixed by the computation API contract. */
 export const DEMO_TEAM = 'Harbour Type Workshop'
@@ -61,6 +64,93 @@ function demoGlyphs(): PathInput[] {
   }))
 }
 
+/** Sizes of the glyph review's rows, in pixels per em. */
+const REVIEW_PPEM = 16
+const CLOSE_LOOK_PPEM = 12
+const CLOSE_LOOK_GLYPH = 'a'
+
+/**
+ * One horizontal sweep along the pixel-centre rows of a raster with `spacing` path units per
+ * pixel, covering [minY, maxY]. With pixel edges on y = 0 (the baseline of a glyph, the top
+ * edge of an icon's grid), centres sit at y = (j + 0.5)·spacing for whole j (common practice:
+ * a rasterizer samples each pixel row at its centre). For a glyph stored with y flipped
+ * (y_path = −y_font) these are the same rows, y_path = −(k + 0.5)·spacing with k = −j − 1.
+ * Lines start at x = 0, so a hit's s is its x. Null when no centre lies in the range.
+ */
+function pixelCentreSweep(minY: number, maxY: number, spacing: number): ProbeSetSweep | null {
+  const first = Math.ceil(minY / spacing - 0.5)
+  const last = Math.floor(maxY / spacing - 0.5)
+  return last < first ? null : { angle: 0, spacing, count: last - first + 1, origin: [0, (first + 0.5) * spacing] }
+}
+
+/**
+ * The demo's probe sets, made on revision 1 of paths seeded just before. Wayfinding icons:
+ * three rays on the map pin (evenodd) whose crossing counts decide inside or outside, and
+ * the knot's pixel rows on the icons' 24-unit grid at 24 px. Glyphs: each glyph's rows at
+ * 16 ppem, and 'a' again at 12 ppem.
+ */
+async function seedProbeSets(
+  m: EntityManager,
+  authorId: number,
+  icons: { projectId: number; pathIds: number[] },
+  glyphs: { projectId: number; pathIds: number[]; inputs: PathInput[] },
+): Promise<void> {
+  const iconId = (name: string) => icons.pathIds[DEMO_PATHS.findIndex((p) => p.name === name)]
+  const sets: Array<{ projectId: number } & ProbeSetInput> = [
+    {
+      projectId: icons.projectId,
+      name: 'Pin rays',
+      // Crossings found by the closed-form engine when the set was written (odd = filled, evenodd):
+      description: 'From the hole: 2 crossings, hole edge (14.5, 9) and the body at the join (19, 9). From the body: 3, up through the hole and the join at the top (12, 2). From outside: 2, across the taper at y = 20.',
+      pathId: iconId('Map pin'),
+      revision: 1,
+      probes: [
+        { type: 'ray', origin: [12, 9], direction: [1, 0] },
+        { type: 'ray', origin: [12, 15], direction: [0, -1] },
+        { type: 'ray', origin: [0, 20], direction: [1, 0] },
+      ],
+      sweeps: [],
+    },
+  ]
+  const knotRows = pixelCentreSweep(...(await storedYRange(m, iconId('Crossing knot'))), 1)
+  if (knotRows) {
+    sets.push({
+      projectId: icons.projectId,
+      name: 'Knot scanlines',
+      description: 'The pixel-centre rows of a 24 px rendering (one unit per pixel) across the knot.',
+      pathId: iconId('Crossing knot'),
+      revision: 1,
+      probes: [],
+      sweeps: [knotRows],
+    })
+  }
+  for (let i = 0; i < glyphs.inputs.length; i++) {
+    const meta = glyphs.inputs[i].metadata as { unitsPerEm: number; codePoint: number }
+    const char = String.fromCodePoint(meta.codePoint)
+    const range = await storedYRange(m, glyphs.pathIds[i])
+    for (const ppem of char === CLOSE_LOOK_GLYPH ? [REVIEW_PPEM, CLOSE_LOOK_PPEM] : [REVIEW_PPEM]) {
+      const rows = pixelCentreSweep(...range, meta.unitsPerEm / ppem)
+      if (!rows) continue
+      sets.push({
+        projectId: glyphs.projectId,
+        name: `${char} · rows at ${ppem} ppem`,
+        description: `The rows a rasterizer samples at ${ppem} pixels per em: ${rows.count} pixel centres across the glyph's bounds.`,
+        pathId: glyphs.pathIds[i],
+        revision: 1,
+        probes: [],
+        sweeps: [rows],
+      })
+    }
+  }
+  for (const { projectId, ...input } of sets) await insertProbeSetIn(m, projectId, authorId, input)
+}
+
+/** The y range of the bounds stored with revision 1 of a path. */
+async function storedYRange(m: EntityManager, pathId: number): Promise<[number, number]> {
+  const r = await m.getRepository(RevisionEntity).findOneByOrFail({ pathId, number: 1 })
+  return [Number(r.bboxMinY), Number(r.bboxMaxY)]
+}
+
 /**
  * Seeds the demo team when the database has no users at all. Returns false when there was
  * something already. Everything goes in one transaction: all of it or none.
@@ -80,9 +170,10 @@ export async function seedDemo(ds: DataSource, password: string): Promise<boolea
     const editorId = ids[1]
     const project = (name: string, description: string) => m.getRepository(ProjectEntity).save({ teamId: team.id, name, description, createdById: editorId })
     const icons = await project('Wayfinding icons', 'Signage icons for the harbour ferry terminal: arrows, a map pin, a lift, a stair, the ferry itself.')
-    await createPathsIn(m, icons.id, editorId, 'drawn', DEMO_PATHS.map((p) => ({ ...p, units: 'px', sourceFile: null, metadata: null })), 'Drawn for the terminal signage')
+    const iconIds = await createPathsIn(m, icons.id, editorId, 'drawn', DEMO_PATHS.map((p) => ({ ...p, units: 'px', sourceFile: null, metadata: null })), 'Drawn for the terminal signage')
     const glyphs = await project('Headline glyph review', 'Roboto Bold glyphs for the terminal headlines, swept at the rows a rasterizer samples.')
-    if (glyphPaths.length) await createPathsIn(m, glyphs.id, editorId, 'font', glyphPaths, 'Imported from Roboto Bold')
+    const glyphIds = glyphPaths.length ? await createPathsIn(m, glyphs.id, editorId, 'font', glyphPaths, 'Imported from Roboto Bold') : []
+    await seedProbeSets(m, editorId, { projectId: icons.id, pathIds: iconIds }, { projectId: glyphs.id, pathIds: glyphIds, inputs: glyphPaths })
   })
   return true
 }
