@@ -210,17 +210,8 @@ export function fileNameFromDisposition(header: string | null): string | null {
   return name || null
 }
 
-/**
- * Downloads a file answer (an export) and hands it to the browser's save flow through a
- * temporary `<a download>`. Resolves to the file name used; errors as for `request`.
- */
-export async function download(
-  path: string,
-  options: { query?: RequestOptions<unknown>['query']; fallbackName: string; signal?: AbortSignal },
-): Promise<string> {
-  const response = await send(path, { query: options.query, signal: options.signal, accept: '*/*' })
-  const blob = await response.blob()
-  const fileName = fileNameFromDisposition(response.headers.get('Content-Disposition')) ?? options.fallbackName
+/** Hands a file made in the page (or downloaded) to the browser's save flow through a temporary `<a download>`. */
+export function saveBlob(blob: Blob, fileName: string): void {
   const url = URL.createObjectURL(blob)
   const link = document.createElement('a')
   link.href = url
@@ -234,5 +225,19 @@ export async function download(
     link.remove()
     setTimeout(() => URL.revokeObjectURL(url), DOWNLOAD_URL_LIFETIME_MS)
   }
+}
+
+/**
+ * Downloads a file answer (an export) and hands it to the browser's save flow through a
+ * temporary `<a download>`. Resolves to the file name used; errors as for `request`.
+ */
+export async function download(
+  path: string,
+  options: { query?: RequestOptions<unknown>['query']; fallbackName: string; signal?: AbortSignal },
+): Promise<string> {
+  const response = await send(path, { query: options.query, signal: options.signal, accept: '*/*' })
+  const blob = await response.blob()
+  const fileName = fileNameFromDisposition(response.headers.get('Content-Disposition')) ?? options.fallbackName
+  saveBlob(blob, fileName)
   return fileName
 }

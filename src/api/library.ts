@@ -11,6 +11,7 @@ import {
   type Bundle,
   type FontPreview,
   type ImportPaths,
+  type NewPath,
   type PathDetail,
   type PathListItem,
   type PathPage,
@@ -139,4 +140,14 @@ export function exportBundle(projectId: number, ids: readonly number[]): Promise
     query: { ids: ids.join(',') },
     fallbackName: `project-${projectId}-bundle.json`,
   })
+}
+
+/** Saves new path data as the next revision (editor); nothing is overwritten. */
+export function addRevision(pathId: number, data: string, message: string): Promise<PathDetail> {
+  return request(`/paths/${pathId}/revisions`, { method: 'POST', body: { data, message }, schema: pathDetailSchema })
+}
+
+/** Adds a path drawn on the canvas with its first revision (editor). */
+export function createPath(projectId: number, input: NewPath): Promise<PathDetail> {
+  return request(`/projects/${projectId}/paths`, { method: 'POST', body: input, schema: pathDetailSchema })
 }

@@ -7,7 +7,7 @@ import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
 import type { RootcastApp } from '../../server/app'
 import { ROOT_DIR } from '../../server/app'
-import { buildTestApp } from '../helpers/test-app'
+import { buildTestApp, TEST_PASSWORD } from '../helpers/test-app'
 import type { TestDatabase } from '../helpers/test-db'
 
 export const SCREENSHOT_DIR = join(ROOT_DIR, 'test-output', 'screenshots')
@@ -99,4 +99,13 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const file = join(SCREENSHOT_DIR, `${name}.png`)
   await page.screenshot({ path: file })
   return file
+}
+
+/** Signs in through the sign-in form with the test password and waits for the projects screen. */
+export async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`)
+  await page.locator('[data-testid="sign-in-email"] input').fill(email)
+  await page.locator('[data-testid="sign-in-password"] input').fill(TEST_PASSWORD)
+  await page.locator('[data-testid="sign-in-submit"]').click()
+  await page.waitForURL(/\/projects$/)
 }

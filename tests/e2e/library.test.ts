@@ -4,9 +4,9 @@ import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PathEntity } from '../../server/entities/path.entity'
 import { RevisionEntity } from '../../server/entities/revision.entity'
-import { seedTestData, TEST_PASSWORD } from '../helpers/test-app'
+import { seedTestData } from '../helpers/test-app'
 import { createTestDatabase, type TestDatabase } from '../helpers/test-db'
-import { launchBrowser, screenshot, serveApp, type Browser, type RunningApp } from './browser'
+import { launchBrowser, screenshot, serveApp, signIn, type Browser, type RunningApp } from './browser'
 
 let db: TestDatabase
 let app: RunningApp
@@ -21,11 +21,7 @@ beforeAll(async () => {
   browser = await launchBrowser()
   const ctx = await browser.newContext()
   page = await ctx.newPage()
-  await page.goto(`${app.baseUrl}/sign-in`)
-  await page.locator('[data-testid="sign-in-email"] input').fill('editor@example.com')
-  await page.locator('[data-testid="sign-in-password"] input').fill(TEST_PASSWORD)
-  await page.locator('[data-testid="sign-in-submit"]').click()
-  await page.waitForURL(/\/projects$/)
+  await signIn(page, app.baseUrl, 'editor@example.com')
   const [{ id }] = (await db.ds.query("SELECT id FROM projects WHERE name = 'Wayfinding icons'")) as Array<{ id: number }>
   projectId = Number(id)
 })

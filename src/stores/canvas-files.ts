@@ -1,0 +1,83 @@
+import { defineStore } from 'pinia'
+import { ref } from 'vue'
+import { addRevision, createPath, getPath, getRevision } from '../api/library'
+import { toApiRequestError, type ApiRequestError } from '../api/http'
+import { serializeEditPath } from '../canvas/edit-path'
+import { useCanvasStore } from './canvas'
+
+/**
+ * The canvas's traffic with the library: opening paths (or an older revision) on the sheet
+ * and saving an edit as a new revision, or a path drawn here as a new path.
+ */
+export const useCanvasFilesStore = defineStore('canvasFiles', () => {
+  const canvas = useCanvasStore()
+  const isLoading = ref(false)
+  const isSaving = ref(false)
+  const error = ref<ApiRequestError | null>(null)
+
+  /** Opens every id that is not on the sheet yet; resolves to the keys in the given order. */
+  async function openPaths(ids: readonly number[]): Promise<string[]> {
+    isLoading.value = true
+    error.value = null
+    try {
+      const keys: string[] = []
+      for (const id of ids) {
+        const key = `path-${id}`
+        if (canvas.sheets.some((s) => s.key === key)) keys.push(key)
+        else keys.push(canvas.openPath(await getPath(id)))
+      }
+      return keys
+    } catch (cause) {
+      error.value = toApiRequestError(cause)
+      return []
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Puts revision `number` of a path on the sheet (replacing the path's sheet if open and clean). */
+  async function openRevision(pathId: number, number: number): Promise<string | null> {
+    isLoading.value = true
+    error.value = null
+    try {
+      const [detail, revision] = await Promise.all([getPath(pathId), getRevision(pathId, number)])
+      const key = `path-${pathId}`
+      if (canvas.sheets.some((s) => s.key === key)) {
+        if (canvas.isDirty(key)) throw new Error('The path has unsaved edits on the sheet: save or undo them first.')
+        canvas.closePath(key)
+      }
+      return canvas.openPath({ ...detail, data: revision.data, revision: revision.number, diagnostics: revision.diagnostics })
+    } catch (cause) {
+      error.value = toApiRequestError(cause)
+      return null
+    } finally {
+      isLoading.value = false
+    }
+  }
+
+  /** Saves a sheet: a new revision of its path, or a new path for one drawn here. Resolves to the sheet's key. */
+  async function save(projectId: number, key: string, message: string, name: string): Promise<string | null> {
+    const sheet = canvas.sheets.find((s) => s.key === key)
+    if (!sheet) return null
+    isSaving.value = true
+    error.value = null
+    try {
+      const data = serializeEditPath(sheet.edit)
+      const detail = sheet.pathId === null
+        ? await createPath(projectId, { name, data, fillRule: sheet.fillRule, units: sheet.units, message })
+        : await addRevision(sheet.pathId, data, message)
+      return canvas.markSaved(key, detail)
+    } catch (cause) {
+      error.value = toApiRequestError(cause)
+      return null
+    } finally {
+      isSaving.value = false
+    }
+  }
+
+  function clearError(): void {
+    error.value = null
+  }
+
+  return { isLoading, isSaving, error, openPaths, openRevision, save, clearError }
+})
