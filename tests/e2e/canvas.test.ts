@@ -233,6 +233,26 @@ describe('the canvas in Chromium', () => {
     await screenshot(page, '25-library-new-revision')
   })
 
+  it('reopens a seeded probe set on a glyph: its sweep rows, y upwards, the containment view', async () => {
+    const [set] = (await db.ds.query("SELECT s.id, s.project_id AS projectId, s.sweeps FROM probe_sets s WHERE s.name LIKE 'R %16 ppem'")) as Array<{ id: number; projectId: number; sweeps: unknown }>
+    const sweeps = (typeof set.sweeps === 'string' ? JSON.parse(set.sweeps) : set.sweeps) as Array<{ count: number }>
+    await page.goto(`${app.baseUrl}/projects/${set.projectId}/canvas?probeSet=${set.id}`)
+    await page.locator('[data-testid="canvas-view"]').scrollIntoViewIfNeeded()
+    await page.locator('[data-testid="sweep-card-sweep-1"]').waitFor()
+    // Fonts show y upwards: the first row's y reads as a positive font-unit height.
+    expect(await page.locator('[data-testid="toggle-y-up"]').getAttribute('aria-pressed')).toBe('true')
+    const firstY = Number(await page.locator('[data-testid="sweep-card-sweep-1"]').getByLabel('first line y', { exact: true }).inputValue())
+    expect(firstY).toBeGreaterThan(0)
+    const hits = Number((await page.locator('[data-testid="hit-count"]').innerText()).match(/\d+/)![0])
+    // Every row of a closed outline is crossed an even number of times; R has rows with 2 and 4.
+    expect(hits % 2).toBe(0)
+    expect(hits).toBeGreaterThanOrEqual(2 * sweeps[0].count)
+    await page.locator('[data-testid="server-check"]').getByText(/Server agrees on all \d+ hits/).waitFor()
+    await page.locator('[data-testid="toggle-containment"]').click()
+    await page.waitForTimeout(400)
+    await screenshot(page, '27-canvas-glyph-sweep-containment')
+  })
+
   it('lets a viewer probe and export but not save edits or probe sets', async () => {
     const ctx = await browser.newContext()
     const viewer = await ctx.newPage()
