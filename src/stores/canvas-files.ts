@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import { addRevision, createPath, getPath, getRevision } from '../api/library'
-import { toApiRequestError, type ApiRequestError } from '../api/http'
+import { ApiRequestError, toApiRequestError } from '../api/http'
 import { serializeEditPath } from '../canvas/edit-path'
 import { useCanvasStore } from './canvas'
 
@@ -15,24 +15,36 @@ export const useCanvasFilesStore = defineStore('canvasFiles', () => {
   const isSaving = ref(false)
   const error = ref<ApiRequestError | null>(null)
 
-  /** Opens every id that is not on the sheet yet; resolves to the keys in the given order. */
+  /**
+   * Opens every id that is not on the sheet yet; resolves to the keys of those on the sheet,
+   * in the given order. One that cannot be opened (gone, another team's) is skipped and
+   * named in `error`; the others still open.
+   */
   async function openPaths(ids: readonly number[]): Promise<string[]> {
     isLoading.value = true
     error.value = null
-    try {
-      const keys: string[] = []
-      for (const id of ids) {
-        const key = `path-${id}`
-        if (canvas.sheets.some((s) => s.key === key)) keys.push(key)
-        else keys.push(canvas.openPath(await getPath(id)))
+    const keys: string[] = []
+    const failed: string[] = []
+    let lastError: ApiRequestError | null = null
+    for (const id of ids) {
+      const key = `path-${id}`
+      if (canvas.sheets.some((s) => s.key === key)) {
+        keys.push(key)
+        continue
       }
-      return keys
-    } catch (cause) {
-      error.value = toApiRequestError(cause)
-      return []
-    } finally {
-      isLoading.value = false
+      try {
+        keys.push(canvas.openPath(await getPath(id)))
+      } catch (cause) {
+        lastError = toApiRequestError(cause)
+        failed.push(`#${id}`)
+      }
     }
+    if (lastError) {
+      const what = failed.length === 1 ? `Path ${failed[0]} could not be opened` : `Paths ${failed.join(', ')} could not be opened`
+      error.value = new ApiRequestError(lastError.status, lastError.code, `${what}: ${lastError.message}`)
+    }
+    isLoading.value = false
+    return keys
   }
 
   /** Puts revision `number` of a path on the sheet (replacing the path's sheet if open and clean). */
