@@ -21,6 +21,14 @@ import { libraryRoutes } from './routes/library.routes'
 import { probeSetRoutes } from './routes/probe-sets.routes'
 import { projectRoutes } from './routes/projects.routes'
 import { systemRoutes } from './routes/system.routes'
+import { suiteRoutes } from './routes/suites.routes'
+import { checkTeamId, runTeamId, suiteTeamId } from './services/suites.service'
+import { auditRoutes } from './routes/audits.routes'
+import type { AuditQueue } from './jobs/audit-queue'
+import { auditTeamId } from './services/audits.service'
+import { tokenRoutes } from './routes/tokens.routes'
+import { devMailRoutes } from './routes/dev-mail.routes'
+import type { Mailbox, Mailer } from './services/mail.service'
 import { roleInTeam } from './services/auth.service'
 import { projectTeamId } from './services/projects.service'
 import { pathTeamId } from './services/library.service'
@@ -39,6 +47,12 @@ export interface AppDeps {
   sessionSecret: string
   /** Folder of the built client; served when it exists. */
   clientDir?: string
+  /** Outgoing mail; without one, nothing is mailed. */
+  mailer?: Mailer
+  /** The local SMTP fake's messages; when given, GET /dev/mail lists them. */
+  mailbox?: Mailbox
+  /** The audit job queue; without one, starting an audit answers 503 `queue_unavailable`. */
+  auditQueue?: AuditQueue
 }
 
 export interface RootcastApp {
@@ -104,7 +118,7 @@ export function createApp(deps: AppDeps): RootcastApp {
       next(new HttpError(429, 'rate_limited', 'Too many failed sign-in attempts. Wait a few minutes and try again.')),
   })
 
-  const teamLookups = { project: projectTeamId, path: pathTeamId, probeSet: probeSetTeamId } as const
+  const teamLookups = { project: projectTeamId, path: pathTeamId, probeSet: probeSetTeamId, suite: suiteTeamId, check: checkTeamId, run: runTeamId, audit: auditTeamId } as const
   const registry = createApiRegistry(api, {
     teamOf: (scope, id) => teamLookups[scope](ds, id),
     membership: (userId, teamId) => roleInTeam(ds, userId, teamId),
@@ -114,6 +128,10 @@ export function createApp(deps: AppDeps): RootcastApp {
   computeRoutes(registry)
   libraryRoutes(registry, ds)
   probeSetRoutes(registry, ds)
+  tokenRoutes(registry, ds)
+  suiteRoutes(registry, { ds, publicUrl: config.publicUrl, mailer: deps.mailer })
+  if (deps.mailbox) devMailRoutes(registry, deps.mailbox)
+  auditRoutes(registry, ds, deps.auditQueue)
   let openApi: unknown
   systemRoutes(registry, ds, () => (openApi ??= buildOpenApiDocument(registry.routes, { version: readPackageVersion() })))
 

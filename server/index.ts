@@ -6,7 +6,10 @@ import { join } from 'node:path'
 import { ROOT_DIR, createApp } from './app'
 import { type Config, loadConfig } from './config'
 import { createDataSource } from './data-source'
+import { startAuditServices } from './jobs/audit-services'
 import { startMariadb, type MariadbInstance } from './scripts/mariadb'
+import { describeInstance } from './scripts/private-service'
+import { startServerMail } from './scripts/smtp-fake'
 import { DEMO_ACCOUNTS, seedDemo } from './services/seed.service'
 
 export const DATA_DIR = join(ROOT_DIR, '.data')
@@ -26,18 +29,22 @@ function sessionSecretFor(config: Config): string {
 export interface StartOptions {
   clientDir?: string
   log?: (line: string) => void
+  /** Start one audit worker process beside the server (default true). */
+  auditWorker?: boolean
 }
 
 /** config → database → migrations → demo seed → listen; resolves with a stop function. */
 export async function startServer(opts: StartOptions = {}): Promise<{ server: Server; stop: () => Promise<void> }> {
   const log = opts.log ?? ((l: string) => console.log(`[rootcast] ${l}`))
   const config = loadConfig()
+  // First, so that production without ROOTCAST_SMTP_URL is refused before anything starts.
+  const mail = await startServerMail(config, log)
   let mariadb: MariadbInstance | undefined
   let url = config.databaseUrl
   if (!url) {
     const port = Number(process.env.ROOTCAST_DB_PORT ?? DEFAULT_DB_PORT)
     mariadb = await startMariadb({ dataDir: join(DATA_DIR, 'mariadb'), port, database: 'rootcast' })
-    log(`MariaDB ${{ started: 'started', adopted: 'found running (left by a stopped server); adopted', shared: 'already running (shared)' }[mariadb.state]} on 127.0.0.1:${port} (data in .data/mariadb)`)
+    log(describeInstance('MariaDB', mariadb, port, '.data/mariadb'))
     url = mariadb.url
   }
   const ds = createDataSource(url)
@@ -45,8 +52,9 @@ export async function startServer(opts: StartOptions = {}): Promise<{ server: Se
   const ran = await ds.runMigrations({ transaction: 'each' })
   if (ran.length) log(`applied migrations: ${ran.map((m) => m.name).join(', ')}`)
   if (!config.production && (await seedDemo(ds, config.demoPassword))) log('seeded the demo team "Harbour Type Workshop"')
+  const audits = await startAuditServices({ config, dataDir: DATA_DIR, databaseUrl: url, worker: opts.auditWorker, log })
 
-  const rc = createApp({ config, dataSource: ds, sessionSecret: sessionSecretFor(config), clientDir: opts.clientDir })
+  const rc = createApp({ config, dataSource: ds, sessionSecret: sessionSecretFor(config), clientDir: opts.clientDir, mailer: mail.mailer, mailbox: mail.fake, auditQueue: audits.queue })
   const server = await new Promise<Server>((resolve, reject) => {
     const s = rc.app.listen(config.port, config.host, () => resolve(s))
     s.on('error', reject)
@@ -65,7 +73,9 @@ export async function startServer(opts: StartOptions = {}): Promise<{ server: Se
         server.closeAllConnections()
       })
       await rc.close()
+      await audits.stop()
       await ds.destroy()
+      await mail.stop()
       if (mariadb?.startedHere) {
         log('stopping MariaDB')
         await mariadb.stop()
@@ -88,8 +98,10 @@ export async function runUntilSignal(opts: StartOptions = {}): Promise<void> {
       },
     )
   }
-  process.once('SIGINT', () => onSignal('SIGINT'))
-  process.once('SIGTERM', () => onSignal('SIGTERM'))
+  // `on`, not `once`: a repeated signal (tsx relays one to its child when the first seems
+  // lost) must not find Node's default handler, which would end the shutdown half-way.
+  process.on('SIGINT', () => onSignal('SIGINT'))
+  process.on('SIGTERM', () => onSignal('SIGTERM'))
 }
 
 const isMain = process.argv[1] && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/'))

@@ -3,6 +3,7 @@ import type { NextFunction, Request, Response } from 'express'
 import type { DataSource } from 'typeorm'
 import { UserEntity } from '../entities/user.entity'
 import { HttpError } from '../errors/http-error'
+import { authenticateTokenSecret } from '../services/tokens.service'
 
 export interface AuthenticatedUser {
   id: number
@@ -13,6 +14,8 @@ export interface AuthenticatedUser {
 export interface AuthInfo {
   via: 'session' | 'token'
   user: AuthenticatedUser
+  /** The personal API token of a bearer request. */
+  tokenId?: number
   /** Throws 403 `csrf` unless the request carries the session's CSRF token. */
   assertCsrf(req: Request): void
 }
@@ -60,16 +63,28 @@ function assertSessionCsrf(req: Request): void {
   }
 }
 
+/** `Authorization: Bearer <secret>`; the scheme name is case-insensitive (RFC 7235). */
+const BEARER_PATTERN = /^Bearer +(\S+) *$/i
+
+const invalidToken = () =>
+  new HttpError(401, 'invalid_token', 'The Authorization header does not carry a valid API token: it is unknown, revoked or expired.')
+
 /**
- * Attaches `req.auth` when the request carries a valid session cookie. A bearer header is
- * answered 401 until personal API tokens exist, so it can never fall through to a session.
+ * Attaches `req.auth` when the request carries a valid personal API token (bearer) or a
+ * valid session cookie. An Authorization header that does not hold a working token is
+ * answered 401 `invalid_token` and never falls through to the cookie.
  */
 export function authenticate(ds: DataSource) {
   const users = ds.getRepository(UserEntity)
   return async (req: Request, _res: Response, next: NextFunction) => {
     const header = req.get('authorization')
     if (header !== undefined) {
-      throw new HttpError(401, 'invalid_token', 'The Authorization header does not carry a valid API token.')
+      const secret = BEARER_PATTERN.exec(header)?.[1]
+      const found = secret === undefined ? undefined : await authenticateTokenSecret(ds, secret)
+      if (!found) throw invalidToken()
+      // A bearer request carries no cookie a third-party page could ride on: no CSRF check.
+      req.auth = { via: 'token', tokenId: found.tokenId, user: found.user, assertCsrf: () => undefined }
+      return next()
     }
     const userId = req.session?.userId
     if (userId !== undefined) {

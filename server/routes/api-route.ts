@@ -8,11 +8,11 @@ import type { AuthenticatedUser } from '../middleware/authenticate'
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete'
 
-/** Where a route finds the team whose role decides: a `teamId`, `projectId`, `pathId` or `probeSetId` URL parameter. */
-export type Scope = 'none' | 'team' | 'project' | 'path' | 'probeSet'
+/** Where a route finds the team whose role decides: a `teamId`, `projectId`, `pathId`, `probeSetId`, `suiteId`, `checkId`, `runId` or `auditId` URL parameter. */
+export type Scope = 'none' | 'team' | 'project' | 'path' | 'probeSet' | 'suite' | 'check' | 'run' | 'audit'
 
-const scopeParam = { team: 'teamId', project: 'projectId', path: 'pathId', probeSet: 'probeSetId' } as const
-const scopeNoun = { team: 'That team', project: 'That project', path: 'That path', probeSet: 'That probe set' } as const
+const scopeParam = { team: 'teamId', project: 'projectId', path: 'pathId', probeSet: 'probeSetId', suite: 'suiteId', check: 'checkId', run: 'runId', audit: 'auditId' } as const
+const scopeNoun = { team: 'That team', project: 'That project', path: 'That path', probeSet: 'That probe set', suite: 'That suite', check: 'That check', run: 'That run', audit: 'That audit' } as const
 
 export interface RouteContext<P, Q, B> {
   params: P
@@ -28,7 +28,7 @@ export interface RouteContext<P, Q, B> {
 }
 
 /** Handlers may return readonly data (the geometry core's results are readonly). */
-type DeepReadonly<T> = T extends (infer U)[] ? readonly DeepReadonly<U>[] : T extends object ? { readonly [K in keyof T]: DeepReadonly<T[K]> } : T
+export type DeepReadonly<T> = T extends (infer U)[] ? readonly DeepReadonly<U>[] : T extends object ? { readonly [K in keyof T]: DeepReadonly<T[K]> } : T
 
 export interface RouteSpec<
   P extends z.ZodType = z.ZodType,

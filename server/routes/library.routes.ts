@@ -42,7 +42,8 @@ const idsQuery = z.object({
 const read = (scope: 'project' | 'path') => ({ permission: 'library.read', scope }) as const
 const write = (scope: 'project' | 'path') => ({ permission: 'library.write', scope }) as const
 
-function attachmentName(base: string, ext: string): string {
+/** A download name made of safe characters only. */
+export function attachmentName(base: string, ext: string): string {
   return `${base.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '') || 'rootcast'}.${ext}`
 }
 

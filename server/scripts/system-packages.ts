@@ -17,6 +17,12 @@ export const MARIADB_SERVER: SystemProgram = {
   debianPackage: 'mariadb-server',
 }
 
+export const REDIS_SERVER: SystemProgram = {
+  label: 'Redis server',
+  paths: ['/usr/bin/redis-server'],
+  debianPackage: 'redis-server',
+}
+
 export const CHROMIUM: SystemProgram = {
   label: 'Chromium',
   paths: ['/usr/bin/chromium'],

@@ -2,13 +2,13 @@ import { spawnSync } from 'node:child_process'
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs'
 import { join } from 'node:path'
 import { ROOT_DIR } from '../app'
-import { CHROMIUM, MARIADB_SERVER, ensureProgram } from './system-packages'
+import { CHROMIUM, MARIADB_SERVER, REDIS_SERVER, ensureProgram } from './system-packages'
 
 /**
  * `npm test`: installs what the tests need from Debian when missing (as root), type-checks,
  * builds the client for the browser tests, and runs every Vitest project: the geometry
  * core, the client components, the API against a throwaway MariaDB and the browser tests
- * in Chromium. The MariaDB instance is started and removed by Vitest's global set-up.
+ * in Chromium. The MariaDB and Redis instances are started and removed by Vitest's global set-up.
  */
 const started = Date.now()
 const outDir = join(ROOT_DIR, 'test-output')
@@ -23,6 +23,7 @@ function step(title: string, cmd: string, args: string[], env: NodeJS.ProcessEnv
 
 try {
   ensureProgram(MARIADB_SERVER)
+  ensureProgram(REDIS_SERVER)
   process.env.ROOTCAST_CHROMIUM = ensureProgram(CHROMIUM)
 } catch (err) {
   console.error(`[rootcast test] ${err instanceof Error ? err.message : String(err)}`)

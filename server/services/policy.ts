@@ -23,6 +23,12 @@ export const permissions = {
   'library.purge': ['owner'],
   /** Create, change and delete probe sets (reading them is library.read). */
   'probeSet.write': ['owner', 'editor'],
+  /** Create, change and delete suites and their checks (reading them and watching a suite is library.read). */
+  'suite.write': ['owner', 'editor'],
+  /** Run a suite, from the screen or with an API token. */
+  'suite.run': ['owner', 'editor'],
+  /** Start and cancel audits (reading them and their reports is library.read). */
+  'audit.run': ['owner', 'editor'],
 } as const satisfies Record<string, readonly Role[]>
 
 export type Permission = keyof typeof permissions

@@ -87,8 +87,8 @@ export async function probeSetTeamId(ds: DataSource, id: number): Promise<number
   return row[0] ? Number(row[0].teamId) : undefined
 }
 
-/** A set is made on a live path of its own project, on a revision that path has. */
-async function assertPathRevision(m: EntityManager, projectId: number, pathId: number, revision: number): Promise<void> {
+/** A set (or a check) is made on a live path of its own project, on a revision that path has. */
+export async function assertPathRevision(m: EntityManager, projectId: number, pathId: number, revision: number): Promise<void> {
   const path = await m.getRepository(PathEntity).findOne({ where: { id: pathId, projectId }, select: { id: true, deletedAt: true } })
   if (!path || path.deletedAt) throw new HttpError(404, 'path_not_found', 'That path is not in this project, or it is in the trash.')
   if (!(await m.getRepository(RevisionEntity).existsBy({ pathId, number: revision }))) {

@@ -13,6 +13,7 @@ import { hashPassword } from './auth.service'
 import { importGlyphs } from './import/font-import'
 import { createPathsIn, type PathInput } from './library.service'
 import { insertProbeSetIn, type ProbeSetInput } from './probe-sets.service'
+import { seedDemoSuites } from './demo-suites'
 
 /** The invented demo studio; the three addresses are fixed by the computation API contract. */
 export const DEMO_TEAM = 'Harbour Type Workshop'
@@ -174,6 +175,7 @@ export async function seedDemo(ds: DataSource, password: string): Promise<boolea
     const glyphs = await project('Headline glyph review', 'Roboto Bold glyphs for the terminal headlines, swept at the rows a rasterizer samples.')
     const glyphIds = glyphPaths.length ? await createPathsIn(m, glyphs.id, editorId, 'font', glyphPaths, 'Imported from Roboto Bold') : []
     await seedProbeSets(m, editorId, { projectId: icons.id, pathIds: iconIds }, { projectId: glyphs.id, pathIds: glyphIds, inputs: glyphPaths })
+    await seedDemoSuites(m, { watcherId: ids[0], iconsProjectId: icons.id, glyphsProjectId: glyphs.id, glyphSetSuffix: ` · rows at ${REVIEW_PPEM} ppem` })
   })
   return true
 }

@@ -29,6 +29,8 @@ export type { Probe, Hit, HitKind } from './intersect-probe'
 export type { FillRule, Containment } from './winding'
 /** Sweep requests (by angle, spacing and count, or explicit rows) and their per-row answers. */
 export type { AngleSweep, RowSweep, SweepRow, RowSpan } from './sweep'
+/** A stored sweep (angle in degrees, spacing, count, origin) and one of its lines (origin, unit direction). */
+export type { LineSweep, SweepLine } from './sweep-lines'
 /** The one interface of the closed-form and numeric ray–cubic engines. */
 export type { IntersectionEngine, EngineName } from './engines/types'
 /** Result of converting an SVG arc command: an exact arc, a line (zero radius) or omitted (equal end points). */
@@ -138,6 +140,24 @@ export { containsPoints } from './winding'
  * @example sweepPath(path, { rows: [2.5, 7.5] })[0].filled // [[x0, x1], …]
  */
 export { sweepPath } from './sweep'
+
+/**
+ * Unit direction (cos, sin) of an angle in degrees from +x towards +y (clockwise on screen).
+ * Multiples of 90° are exact 0 and ±1, odd multiples of 45° have |x| = |y| exactly; angles
+ * are reduced to [0°, 360°) first, so whole turns change nothing (tested). RangeError for a
+ * non-finite angle.
+ * @example directionOfAngle(90) // [0, 1]
+ */
+export { directionOfAngle } from './sweep-lines'
+
+/**
+ * The lines of a stored sweep, as probe sets, checks and the canvas keep them: line i
+ * (0 ≤ i < count) passes through origin + i·spacing·(−sin, cos) and runs along (cos, sin) of
+ * the angle in degrees. Client and server build identical lines. Count 0 gives none;
+ * RangeError for a fractional or negative count or non-finite numbers.
+ * @example sweepLines({ angle: 0, spacing: 2, count: 2, origin: [1, 5] }) // lines through (1, 5) and (1, 7) along +x
+ */
+export { sweepLines } from './sweep-lines'
 
 /**
  * Point P(t) of a segment; t = 0 and t = 1 return the stored end points exactly.

@@ -3,54 +3,15 @@
  * sweep, the canvas ↔ core probe forms, the visible piece of a probe in a rectangle, and
  * a path's extent. Pure functions on plain data; coordinates are the path's own (y down).
  */
-import type { Bounds, NormalisedPath, Point, Probe } from '../../shared/geometry'
-import { computeSegmentBounds } from '../../shared/geometry'
+import type { Bounds, NormalisedPath, Point, Probe, SweepLine } from '../../shared/geometry'
+import { computeSegmentBounds, sweepLines as sweepLinesOf } from '../../shared/geometry'
 import type { CanvasProbe, CanvasSweep } from './types'
 
-/** Directions at the multiples of 45°, exact: axes are 0/±1, diagonals have |x| = |y| = √½. */
-const OCTANT_DIRECTIONS: readonly Point[] = [
-  [1, 0], [Math.SQRT1_2, Math.SQRT1_2], [0, 1], [-Math.SQRT1_2, Math.SQRT1_2],
-  [-1, 0], [-Math.SQRT1_2, -Math.SQRT1_2], [0, -1], [Math.SQRT1_2, -Math.SQRT1_2],
-]
+/** Directions from angles live in the core, shared with the server. */
+export { directionOfAngle } from '../../shared/geometry'
 
-/**
- * Unit direction (cos, sin) of an angle in degrees from +x towards +y (clockwise on screen).
- * Multiples of 90° give exact 0 and ±1, odd multiples of 45° equal |x| and |y|; other
- * angles are reduced to [0°, 360°) first (exact: fmod is exact in IEEE arithmetic), so 370°
- * and 10° give the same direction. RangeError for a non-finite angle.
- */
-export function directionOfAngle(degrees: number): Point {
-  if (!Number.isFinite(degrees)) throw new RangeError(`angle must be a finite number of degrees, got ${degrees}`)
-  let reduced = degrees % 360
-  if (reduced < 0) reduced += 360
-  if (reduced === 360) reduced = 0 // a tiny negative angle rounds up to 360 when 360 is added
-  const octant = reduced / 45
-  if (Number.isInteger(octant)) return OCTANT_DIRECTIONS[octant]
-  const radians = (reduced * Math.PI) / 180
-  return [Math.cos(radians), Math.sin(radians)]
-}
-
-/**
- * The lines of a sweep, as CanvasSweep defines them: line i passes through
- * origin + i·spacing·n with n = (−sin, cos) of the angle, and runs along (cos, sin).
- * A count of 0 gives none. RangeError for a count that is not a non-negative integer or
- * non-finite numbers.
- */
-export function sweepLines(sweep: CanvasSweep): { origin: Point; direction: Point }[] {
-  const { count, spacing, origin } = sweep
-  if (!Number.isInteger(count) || count < 0) throw new RangeError(`sweep count must be a non-negative integer, got ${count}`)
-  if (!Number.isFinite(spacing) || !Number.isFinite(origin[0]) || !Number.isFinite(origin[1])) {
-    throw new RangeError('sweep spacing and origin must be finite numbers')
-  }
-  const direction = directionOfAngle(sweep.angle)
-  const normalX = -direction[1], normalY = direction[0]
-  const lines: { origin: Point; direction: Point }[] = []
-  for (let i = 0; i < count; i++) {
-    const offset = i * spacing
-    lines.push({ origin: [origin[0] + offset * normalX, origin[1] + offset * normalY], direction })
-  }
-  return lines
-}
+/** The lines of a canvas sweep (its id aside), built by the core exactly as the server builds them. */
+export const sweepLines: (sweep: CanvasSweep) => SweepLine[] = sweepLinesOf
 
 /** The computation contract's form of a canvas probe (the same numbers, shared). */
 export function toCoreProbe(p: CanvasProbe): Probe {

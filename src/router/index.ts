@@ -75,6 +75,12 @@ export function createAppRouter(history: RouterHistory = createWebHistory()) {
         meta: { title: 'Account' },
       },
       {
+        path: '/dev/mail',
+        name: 'dev-mail',
+        component: () => import('../views/DevMailView.vue'),
+        meta: { title: 'Mail (development)' },
+      },
+      {
         path: '/:pathMatch(.*)*',
         name: 'not-found',
         component: () => import('../views/NotFoundView.vue'),

@@ -11,6 +11,8 @@ import { useCanvasStore } from './canvas'
  */
 export const useCanvasFilesStore = defineStore('canvasFiles', () => {
   const canvas = useCanvasStore()
+  /** The project whose paths are on the sheet; the sheet survives leaving the Canvas tab and coming back. */
+  const projectId = ref<number | null>(null)
   const isLoading = ref(false)
   const isSaving = ref(false)
   const error = ref<ApiRequestError | null>(null)
@@ -91,5 +93,5 @@ export const useCanvasFilesStore = defineStore('canvasFiles', () => {
     error.value = null
   }
 
-  return { isLoading, isSaving, error, openPaths, openRevision, save, clearError }
+  return { projectId, isLoading, isSaving, error, openPaths, openRevision, save, clearError }
 })

@@ -30,9 +30,9 @@ export interface RunningApp {
 }
 
 /** The real app (API and the built client) listening on an ephemeral port of 127.0.0.1. */
-export async function serveApp(db: TestDatabase): Promise<RunningApp> {
+export async function serveApp(db: TestDatabase, opts: Omit<NonNullable<Parameters<typeof buildTestApp>[1]>, 'clientDir'> = {}): Promise<RunningApp> {
   const clientDir = process.env.ROOTCAST_TEST_CLIENT_DIR ?? join(ROOT_DIR, 'dist')
-  const rc = buildTestApp(db.ds, { clientDir })
+  const rc = buildTestApp(db.ds, { ...opts, clientDir })
   const server: Server = await new Promise((resolve) => {
     const s = rc.app.listen(0, '127.0.0.1', () => resolve(s))
   })

@@ -5,7 +5,9 @@ import { loadConfig } from '../../server/config'
 import { MembershipEntity } from '../../server/entities/membership.entity'
 import { TeamEntity } from '../../server/entities/team.entity'
 import { UserEntity } from '../../server/entities/user.entity'
+import type { AuditQueue } from '../../server/jobs/audit-queue'
 import { hashPassword } from '../../server/services/auth.service'
+import type { Mailbox, Mailer } from '../../server/services/mail.service'
 import { seedDemo } from '../../server/services/seed.service'
 
 /** Not the product's default demo password, so a test cannot pass by accident on the default. */
@@ -17,8 +19,14 @@ export function testConfig(env: Record<string, string> = {}) {
   return loadConfig({ NODE_ENV: 'test', ROOTCAST_DEMO_PASSWORD: TEST_PASSWORD, ...env })
 }
 
-export function buildTestApp(ds: DataSource, opts: { env?: Record<string, string>; clientDir?: string } = {}): RootcastApp {
-  return createApp({ config: testConfig(opts.env), dataSource: ds, sessionSecret: TEST_SESSION_SECRET, clientDir: opts.clientDir })
+export function buildTestApp(
+  ds: DataSource,
+  opts: { env?: Record<string, string>; clientDir?: string; mailer?: Mailer; mailbox?: Mailbox; auditQueue?: AuditQueue } = {},
+): RootcastApp {
+  return createApp({
+    config: testConfig(opts.env), dataSource: ds, sessionSecret: TEST_SESSION_SECRET, clientDir: opts.clientDir,
+    mailer: opts.mailer, mailbox: opts.mailbox, auditQueue: opts.auditQueue,
+  })
 }
 
 /** The demo team plus a second team with one owner, who must never see the demo team's work. */
