@@ -16,6 +16,9 @@ import { authenticate } from './middleware/authenticate'
 import { buildOpenApiDocument } from './openapi'
 import { createApiRegistry, type ApiRegistry } from './routes/api-route'
 import { authRoutes } from './routes/auth.routes'
+import { accountRoutes } from './routes/account.routes'
+import { teamRoutes } from './routes/team.routes'
+import { invitationTeamId } from './services/invitations.service'
 import { computeRoutes } from './routes/compute.routes'
 import { libraryRoutes } from './routes/library.routes'
 import { probeSetRoutes } from './routes/probe-sets.routes'
@@ -33,6 +36,8 @@ import { roleInTeam } from './services/auth.service'
 import { projectTeamId } from './services/projects.service'
 import { pathTeamId } from './services/library.service'
 import { probeSetTeamId } from './services/probe-sets.service'
+import { describeScoped, recordActivity } from './services/activity.service'
+import { activityRoutes } from './routes/activity.routes'
 
 const here = dirname(fileURLToPath(import.meta.url))
 export const ROOT_DIR = join(here, '..')
@@ -118,12 +123,16 @@ export function createApp(deps: AppDeps): RootcastApp {
       next(new HttpError(429, 'rate_limited', 'Too many failed sign-in attempts. Wait a few minutes and try again.')),
   })
 
-  const teamLookups = { project: projectTeamId, path: pathTeamId, probeSet: probeSetTeamId, suite: suiteTeamId, check: checkTeamId, run: runTeamId, audit: auditTeamId } as const
+  const teamLookups = { project: projectTeamId, path: pathTeamId, probeSet: probeSetTeamId, suite: suiteTeamId, check: checkTeamId, run: runTeamId, audit: auditTeamId, invitation: invitationTeamId } as const
   const registry = createApiRegistry(api, {
     teamOf: (scope, id) => teamLookups[scope](ds, id),
     membership: (userId, teamId) => roleInTeam(ds, userId, teamId),
+    describeScoped: (scope, id) => describeScoped(ds, scope, id),
+    recordActivity: (entry) => recordActivity(ds, entry),
   })
   authRoutes(registry, ds, loginLimiter)
+  accountRoutes(registry, { ds, publicUrl: config.publicUrl, mailer: deps.mailer, limits: config.login })
+  teamRoutes(registry, { ds, publicUrl: config.publicUrl, mailer: deps.mailer })
   projectRoutes(registry, ds)
   computeRoutes(registry)
   libraryRoutes(registry, ds)
@@ -132,6 +141,7 @@ export function createApp(deps: AppDeps): RootcastApp {
   suiteRoutes(registry, { ds, publicUrl: config.publicUrl, mailer: deps.mailer })
   if (deps.mailbox) devMailRoutes(registry, deps.mailbox)
   auditRoutes(registry, ds, deps.auditQueue)
+  activityRoutes(registry, ds)
   let openApi: unknown
   systemRoutes(registry, ds, () => (openApi ??= buildOpenApiDocument(registry.routes, { version: readPackageVersion() })))
 

@@ -22,9 +22,15 @@ import { ProbeSets1764806400000 } from './migrations/1764806400000-probe-sets'
 import { Tokens1764892800000 } from './migrations/1764892800000-tokens'
 import { Suites1764892900000 } from './migrations/1764892900000-suites'
 import { Audits1764893000000 } from './migrations/1764893000000-audits'
+import { InvitationEntity } from './entities/invitation.entity'
+import { Invitations1764979200000 } from './migrations/1764979200000-invitations'
+import { PasswordResetEntity } from './entities/password-reset.entity'
+import { PasswordResets1764979300000 } from './migrations/1764979300000-password-resets'
+import { ActivityEntity } from './entities/activity.entity'
+import { Activity1764979400000 } from './migrations/1764979400000-activity'
 
-export const entities = [UserEntity, TeamEntity, MembershipEntity, ProjectEntity, PathEntity, RevisionEntity, PathTagEntity, ProbeSetEntity, ApiTokenEntity, SuiteEntity, CheckEntity, RunEntity, RunResultEntity, SuiteWatcherEntity, AuditEntity, AuditChunkEntity]
-export const migrations = [Initial1764633600000, Library1764720000000, ProbeSets1764806400000, Tokens1764892800000, Suites1764892900000, Audits1764893000000]
+export const entities = [UserEntity, TeamEntity, MembershipEntity, ProjectEntity, PathEntity, RevisionEntity, PathTagEntity, ProbeSetEntity, ApiTokenEntity, SuiteEntity, CheckEntity, RunEntity, RunResultEntity, SuiteWatcherEntity, AuditEntity, AuditChunkEntity, InvitationEntity, PasswordResetEntity, ActivityEntity]
+export const migrations = [Initial1764633600000, Library1764720000000, ProbeSets1764806400000, Tokens1764892800000, Suites1764892900000, Audits1764893000000, Invitations1764979200000, PasswordResets1764979300000, Activity1764979400000]
 
 /** A MariaDB data source for the given URL. Schema changes come only from migrations. */
 export function createDataSource(url: string): DataSource {

@@ -8,6 +8,7 @@ import type { AuditQueue } from '../jobs/audit-queue'
 import * as audits from '../services/audits.service'
 import type { ApiRegistry } from './api-route'
 import { attachmentName } from './library.routes'
+import { countOf, quoted } from './activity-text'
 
 const projectParams = z.object({ projectId: idParam })
 const auditParams = z.object({ auditId: idParam })
@@ -43,6 +44,10 @@ export function auditRoutes(api: ApiRegistry, ds: DataSource, queue: AuditQueue 
       }
       return audits.getAudit(ds.manager, id)
     },
+    activity: ({ result }) => ({
+      action: 'ran', targetType: 'audit', targetId: result.id, targetName: result.name,
+      summary: `Started audit ${quoted(result.name)} over ${countOf(result.pathCount, 'path')} against ${result.engines.join(', ')}.`,
+    }),
   })
 
   api.add({
@@ -57,6 +62,7 @@ export function auditRoutes(api: ApiRegistry, ds: DataSource, queue: AuditQueue 
     description: 'A completed, cancelled or failed audit answers 409 `audit_finished`.',
     access: run('audit'), params: auditParams, response: auditSchema, errors: [409],
     handler: async ({ params }) => audits.cancelAudit(ds, params.auditId, async (chunkCount) => queue?.remove(params.auditId, chunkCount)),
+    activity: ({ result }) => ({ action: 'cancelled', targetType: 'audit', targetId: result.id, targetName: result.name, summary: `Cancelled audit ${quoted(result.name)}.` }),
   })
 
   api.add({

@@ -9,6 +9,13 @@ import type { ApiRegistry } from './api-route'
 function regenerate(req: Parameters<RequestHandler>[0]): Promise<void> {
   return new Promise((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())))
 }
+/** Signs `userId` in on a fresh session id (no session fixation); resolves to the session's CSRF token. */
+export async function startSession(req: Parameters<RequestHandler>[0], userId: number): Promise<string> {
+  await regenerate(req)
+  req.session.userId = userId
+  req.session.csrfToken = newCsrfToken()
+  return req.session.csrfToken
+}
 function destroy(req: Parameters<RequestHandler>[0]): Promise<void> {
   return new Promise((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())))
 }
@@ -26,12 +33,10 @@ export function authRoutes(api: ApiRegistry, ds: DataSource, loginLimiter: Reque
     response: sessionInfoSchema,
     errors: [401, 429],
     middleware: [loginLimiter],
+    activity: { none: 'Signing in starts a session and changes no work.' },
     handler: async ({ body, req }) => {
       const user = await verifyCredentials(ds, body.email, body.password)
-      await regenerate(req) // a fresh session id at sign-in: no session fixation
-      req.session.userId = user.id
-      req.session.csrfToken = newCsrfToken()
-      return sessionInfo(ds, user, req.session.csrfToken)
+      return sessionInfo(ds, user, await startSession(req, user.id))
     },
   })
 
@@ -42,6 +47,7 @@ export function authRoutes(api: ApiRegistry, ds: DataSource, loginLimiter: Reque
     summary: 'Sign out of this session',
     access: { permission: 'signedIn', scope: 'none' },
     status: 204,
+    activity: { none: 'Signing out ends a session and changes no work.' },
     handler: async ({ req, res }) => {
       await destroy(req)
       res.clearCookie('rootcast.sid', { path: '/' })

@@ -35,6 +35,7 @@ export function computeRoutes(api: ApiRegistry): void {
       const [a, b, c, d] = body.coefficients
       return solveCubic(a, b, c, d)
     },
+    activity: { none: 'A pure computation: nothing is stored.' },
   })
 
   api.add({
@@ -53,6 +54,7 @@ export function computeRoutes(api: ApiRegistry): void {
       const results = intersectProbes(path, body.probes).map((hits) => ({ hits }))
       return { segments: path.segments.length, results }
     },
+    activity: { none: 'A pure computation: nothing is stored.' },
   })
 
   api.add({
@@ -69,5 +71,6 @@ export function computeRoutes(api: ApiRegistry): void {
       const path = parsePathForCompute(body.path)
       return { results: containsPoints(path, body.points, body.fillRule) }
     },
+    activity: { none: 'A pure computation: nothing is stored.' },
   })
 }

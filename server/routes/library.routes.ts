@@ -26,6 +26,7 @@ import * as library from '../services/library.service'
 import { roleAllows } from '../services/policy'
 import { projectTeamId } from '../services/projects.service'
 import type { ApiRegistry } from './api-route'
+import { countOf, quoted, scopedName, singleId } from './activity-text'
 
 const projectParams = z.object({ projectId: idParam })
 const pathParams = z.object({ pathId: idParam })
@@ -63,6 +64,7 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
       const [created] = await library.createPaths(ds, params.projectId, user.id, 'drawn', [body], body.message)
       return library.getPathDetail(ds.manager, created.id)
     },
+    activity: ({ result }) => ({ action: 'created', targetType: 'path', targetId: result.id, targetName: result.name, summary: `Added path ${quoted(result.name)}.` }),
   })
 
   api.add({
@@ -71,6 +73,10 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     access: write('project'), params: projectParams, body: importPathsSchema, status: 201, response: createdPathsSchema, errors: [413],
     handler: async ({ params, body, user }) => ({
       created: await library.createPaths(ds, params.projectId, user.id, body.origin, body.paths, body.message),
+    }),
+    activity: ({ body, result }) => ({
+      action: 'imported', targetType: 'path', targetId: singleId(result.created.map((p) => p.id)), targetName: result.created.length === 1 ? result.created[0].name : countOf(result.created.length, 'path'),
+      summary: `Imported ${countOf(result.created.length, 'path')} from ${body.origin === 'font' ? 'a font' : body.origin === 'svg' ? 'SVG' : 'a drawing'}.`,
     }),
   })
 
@@ -81,6 +87,7 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     access: write('project'), params: projectParams, status: 200, response: svgPreviewSchema, errors: [413],
     upload: { field: 'files', maxFiles: UPLOAD_LIMITS.svgFiles, maxBytes: UPLOAD_LIMITS.svgBytes, description: 'SVG files' },
     handler: async ({ req }) => previewSvgFiles((req.files as Express.Multer.File[] | undefined) ?? []),
+    activity: { none: 'A preview: it reads the upload and stores nothing.' },
   })
 
   api.add({
@@ -89,6 +96,7 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     access: write('project'), params: projectParams, body: fontPreviewFieldsSchema, response: fontPreviewSchema, errors: [413],
     upload: { field: 'file', maxFiles: 1, maxBytes: UPLOAD_LIMITS.fontBytes, description: 'One font file' },
     handler: async ({ req, body }) => previewFont((req.files as Express.Multer.File[] | undefined)?.[0], body),
+    activity: { none: 'A preview: it reads the font and stores nothing.' },
   })
 
   api.add({
@@ -102,6 +110,17 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
         return role !== undefined && roleAllows(role, 'library.write')
       }),
     }),
+    activity: ({ body, result }) => {
+      const paths = countOf(result.affected, 'path')
+      const tags = 'tags' in body ? body.tags.map(quoted).join(', ') : ''
+      const bulk = {
+        tag: { action: 'changed', summary: `Tagged ${paths} ${tags}.` },
+        untag: { action: 'changed', summary: `Took the tags ${tags} off ${paths}.` },
+        trash: { action: 'trashed', summary: `Moved ${paths} to the trash.` },
+        copy: { action: 'created', summary: `Copied ${paths} to project #${'targetProjectId' in body ? body.targetProjectId : ''}.` },
+      } as const
+      return { ...bulk[body.action], targetType: 'path', targetId: singleId(body.ids), targetName: countOf(body.ids.length, 'path') }
+    },
   })
 
   api.add({
@@ -109,6 +128,7 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     summary: 'Delete every path in the trash for good (owner)',
     access: { permission: 'library.purge', scope: 'project' }, params: projectParams, response: z.object({ purged: z.number().int() }),
     handler: async ({ params }) => ({ purged: await library.emptyTrash(ds, params.projectId) }),
+    activity: ({ result }) => ({ action: 'purged', targetType: 'path', targetId: null, targetName: countOf(result.purged, 'path'), summary: `Emptied the trash: ${countOf(result.purged, 'path')} deleted for good.` }),
   })
 
   api.add({
@@ -136,6 +156,10 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     summary: 'Import a Rootcast bundle into this project, with every revision',
     access: write('project'), params: projectParams, body: bundleSchema, status: 201, response: createdPathsSchema, errors: [413],
     handler: async ({ params, body, user }) => ({ created: await library.importBundle(ds, params.projectId, user.id, body) }),
+    activity: ({ result }) => ({
+      action: 'imported', targetType: 'path', targetId: singleId(result.created.map((p) => p.id)), targetName: countOf(result.created.length, 'path'),
+      summary: `Imported a Rootcast bundle: ${countOf(result.created.length, 'path')} with their history.`,
+    }),
   })
 
   api.add({
@@ -148,24 +172,33 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     method: 'patch', path: '/paths/:pathId', tag: 'library', summary: 'Rename a path, change its tags or fill rule',
     access: write('path'), params: pathParams, body: updatePathSchema, response: pathDetailSchema,
     handler: async ({ params, body }) => library.updatePath(ds, params.pathId, body),
+    activity: ({ body, result, scoped }) => {
+      const renamed = scoped && scoped.name !== result.name ? `Renamed path ${quoted(scoped.name)} to ${quoted(result.name)}` : ''
+      const what = [body.tags !== undefined && 'tags', body.fillRule !== undefined && 'fill rule'].filter(Boolean).join(' and ')
+      const summary = renamed ? `${renamed}${what ? ` and changed its ${what}` : ''}.` : `Changed the ${what || 'name'} of path ${quoted(result.name)}.`
+      return { action: 'changed', targetType: 'path', targetId: result.id, targetName: result.name, summary }
+    },
   })
 
   api.add({
     method: 'delete', path: '/paths/:pathId', tag: 'library', summary: `Move a path to the trash (kept for 30 days)`,
     access: write('path'), params: pathParams, status: 204, errors: [409],
     handler: async ({ params }) => library.trashPath(ds, params.pathId),
+    activity: ({ params, scoped }) => ({ action: 'trashed', targetType: 'path', targetId: params.pathId, targetName: scopedName(scoped, params.pathId), summary: `Moved path ${quoted(scopedName(scoped, params.pathId))} to the trash.` }),
   })
 
   api.add({
     method: 'post', path: '/paths/:pathId/untrash', tag: 'library', summary: 'Restore a path from the trash',
     access: write('path'), params: pathParams, response: pathDetailSchema, errors: [409, 410],
     handler: async ({ params }) => library.untrashPath(ds, params.pathId),
+    activity: ({ result }) => ({ action: 'restored', targetType: 'path', targetId: result.id, targetName: result.name, summary: `Restored path ${quoted(result.name)} from the trash.` }),
   })
 
   api.add({
     method: 'delete', path: '/paths/:pathId/purge', tag: 'library', summary: 'Delete a path in the trash for good (owner)',
     access: { permission: 'library.purge', scope: 'path' }, params: pathParams, status: 204, errors: [409],
     handler: async ({ params }) => library.purgePath(ds, params.pathId),
+    activity: ({ params, scoped }) => ({ action: 'purged', targetType: 'path', targetId: params.pathId, targetName: scopedName(scoped, params.pathId), summary: `Deleted path ${quoted(scopedName(scoped, params.pathId))} for good.` }),
   })
 
   api.add({
@@ -178,6 +211,7 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     method: 'post', path: '/paths/:pathId/revisions', tag: 'library', summary: 'Save new path data: adds a revision, never overwrites',
     access: write('path'), params: pathParams, body: newRevisionSchema, status: 201, response: pathDetailSchema, errors: [409, 413],
     handler: async ({ params, body, user }) => library.addRevision(ds, params.pathId, user.id, body.data, body.message),
+    activity: ({ result }) => ({ action: 'created', targetType: 'revision', targetId: result.id, targetName: `${result.name} r${result.revision}`, summary: `Saved revision ${result.revision} of path ${quoted(result.name)}.` }),
   })
 
   api.add({
@@ -190,5 +224,9 @@ export function libraryRoutes(api: ApiRegistry, ds: DataSource): void {
     method: 'post', path: '/paths/:pathId/revisions/:number/restore', tag: 'library', summary: 'Restore a revision as a new revision',
     access: write('path'), params: revisionParams, body: restoreRevisionSchema, status: 201, response: pathDetailSchema, errors: [409],
     handler: async ({ params, body, user }) => library.restoreRevision(ds, params.pathId, params.number, user.id, body.message),
+    activity: ({ params, result }) => ({
+      action: 'restored', targetType: 'revision', targetId: result.id, targetName: `${result.name} r${result.revision}`,
+      summary: `Restored revision ${params.number} of path ${quoted(result.name)} as revision ${result.revision}.`,
+    }),
   })
 }

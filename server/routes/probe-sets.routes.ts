@@ -10,6 +10,7 @@ import {
 } from '../../shared/api/probe-sets'
 import * as probeSets from '../services/probe-sets.service'
 import type { ApiRegistry } from './api-route'
+import { changedDraft, createdDraft, deletedDraft } from './activity-text'
 
 const projectParams = z.object({ projectId: idParam })
 const probeSetParams = z.object({ probeSetId: idParam })
@@ -31,6 +32,7 @@ export function probeSetRoutes(api: ApiRegistry, ds: DataSource): void {
     description: 'The name is unique in the project (409 `probe_set_name_taken`); a path of another project or in the trash is 404 `path_not_found`; a revision the path does not have is 400 `unknown_revision`.',
     access: write('project'), params: projectParams, body: newProbeSetSchema, status: 201, response: probeSetSchema, errors: [409],
     handler: async ({ params, body, user }) => probeSets.createProbeSet(ds, params.projectId, user.id, body),
+    activity: ({ result }) => createdDraft('probe-set', 'probe set', result),
   })
 
   api.add({
@@ -44,11 +46,13 @@ export function probeSetRoutes(api: ApiRegistry, ds: DataSource): void {
     summary: 'Replace the fields given of a probe set; a new path or revision is checked as on create',
     access: write('probeSet'), params: probeSetParams, body: updateProbeSetSchema, response: probeSetSchema, errors: [409],
     handler: async ({ params, body }) => probeSets.updateProbeSet(ds, params.probeSetId, body),
+    activity: ({ result, scoped }) => changedDraft('probe-set', 'probe set', result, scoped),
   })
 
   api.add({
     method: 'delete', path: '/probe-sets/:probeSetId', tag: 'probe-sets', summary: 'Delete a probe set',
     access: write('probeSet'), params: probeSetParams, status: 204,
     handler: async ({ params }) => probeSets.deleteProbeSet(ds, params.probeSetId),
+    activity: ({ params, scoped }) => deletedDraft('probe-set', 'probe set', params.probeSetId, scoped),
   })
 }

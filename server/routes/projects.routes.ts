@@ -10,6 +10,7 @@ import {
 } from '../../shared/api/projects'
 import * as projects from '../services/projects.service'
 import type { ApiRegistry } from './api-route'
+import { changedDraft, createdDraft, deletedDraft } from './activity-text'
 
 const teamParams = z.object({ teamId: idParam })
 const projectParams = z.object({ projectId: idParam })
@@ -38,6 +39,7 @@ export function projectRoutes(api: ApiRegistry, ds: DataSource): void {
     status: 201,
     response: projectSchema,
     handler: async ({ params, body, user }) => projects.createProject(ds, params.teamId, user.id, body),
+    activity: ({ result }) => ({ ...createdDraft('project', 'project', result), projectId: result.id }),
   })
 
   api.add({
@@ -61,6 +63,7 @@ export function projectRoutes(api: ApiRegistry, ds: DataSource): void {
     body: updateProjectSchema,
     response: projectSchema,
     handler: async ({ params, body }) => projects.updateProject(ds, params.projectId, body),
+    activity: ({ result, scoped }) => changedDraft('project', 'project', result, scoped),
   })
 
   api.add({
@@ -72,6 +75,7 @@ export function projectRoutes(api: ApiRegistry, ds: DataSource): void {
     params: projectParams,
     status: 204,
     handler: async ({ params }) => projects.deleteProject(ds, params.projectId),
+    activity: ({ params, scoped }) => deletedDraft('project', 'project', params.projectId, scoped, ' with everything in it'),
   })
 
 }

@@ -22,6 +22,7 @@ import * as runs from '../services/runs.service'
 import * as suites from '../services/suites.service'
 import type { ApiRegistry, Scope } from './api-route'
 import { attachmentName } from './library.routes'
+import { changedDraft, createdDraft, deletedDraft, quoted } from './activity-text'
 
 const projectParams = z.object({ projectId: idParam })
 const suiteParams = z.object({ suiteId: idParam })
@@ -56,6 +57,7 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     description: 'The name is unique in the project (409 `suite_name_taken`).',
     access: write('project'), params: projectParams, body: newSuiteSchema, status: 201, response: suiteSchema, errors: [409],
     handler: async ({ params, body, user }) => suites.createSuite(ds, params.projectId, body, user.id, publicUrl),
+    activity: ({ result }) => createdDraft('suite', 'suite', result),
   })
 
   api.add({
@@ -68,12 +70,14 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     method: 'patch', path: '/suites/:suiteId', tag: 'suites', summary: 'Rename a suite or change its description',
     access: write('suite'), params: suiteParams, body: updateSuiteSchema, response: suiteSchema, errors: [409],
     handler: async ({ params, body, user }) => suites.updateSuite(ds, params.suiteId, body, user.id, publicUrl),
+    activity: ({ result, scoped }) => changedDraft('suite', 'suite', result, scoped),
   })
 
   api.add({
     method: 'delete', path: '/suites/:suiteId', tag: 'suites', summary: 'Delete a suite with its checks and runs',
     access: write('suite'), params: suiteParams, status: 204,
     handler: async ({ params }) => suites.deleteSuite(ds, params.suiteId),
+    activity: ({ params, scoped }) => deletedDraft('suite', 'suite', params.suiteId, scoped, ' with its checks and runs'),
   })
 
   api.add({
@@ -82,6 +86,7 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     description: 'Every member of the team may watch; the answer is the suite as you see it afterwards.',
     access: read('suite'), params: suiteParams, body: watchSchema, response: suiteSchema,
     handler: async ({ params, body, user }) => suites.setWatching(ds, params.suiteId, user.id, body.watching, publicUrl),
+    activity: { none: 'A personal mail preference of the caller; the suite and the team’s work do not change.' },
   })
 
   // ---- Checks ----
@@ -97,6 +102,7 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     description: `The server computes the expected hits from the stored path data of that revision. The path must be a live path of the suite's project (404 \`path_not_found\`) with that revision (400 \`unknown_revision\`); the name is unique in the suite (409 \`check_name_taken\`); at most ${SUITE_LIMITS.lines} probe lines per check and ${SUITE_LIMITS.checksPerSuite} checks per suite (413 \`limit\`).`,
     access: write('suite'), params: suiteParams, body: newCheckSchema, status: 201, response: checkSchema, errors: [409, 413],
     handler: async ({ params, body }) => suites.createCheck(ds, params.suiteId, body),
+    activity: ({ result, scoped }) => ({ ...createdDraft('check', 'check', result), summary: `Kept check ${quoted(result.name)} in suite ${quoted(scoped?.name ?? '')}.` }),
   })
 
   api.add({
@@ -110,12 +116,14 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     summary: 'Change a check’s name, tolerance, match rules or what it follows; a revision keeps that revision’s hits as expected',
     access: write('check'), params: checkParams, body: updateCheckSchema, response: checkSchema, errors: [409, 413],
     handler: async ({ params, body }) => suites.updateCheck(ds, params.checkId, body),
+    activity: ({ result, scoped }) => changedDraft('check', 'check', result, scoped),
   })
 
   api.add({
     method: 'delete', path: '/checks/:checkId', tag: 'suites', summary: 'Delete a check; its results in past runs stay',
     access: write('check'), params: checkParams, status: 204,
     handler: async ({ params }) => suites.deleteCheck(ds, params.checkId),
+    activity: ({ params, scoped }) => deletedDraft('check', 'check', params.checkId, scoped),
   })
 
   api.add({
@@ -132,6 +140,13 @@ export function suiteRoutes(api: ApiRegistry, deps: SuiteRouteDeps): void {
     access: { permission: 'suite.run', scope: 'suite' }, params: suiteParams, status: 201, response: runDetailSchema, errors: [409],
     handler: async ({ params, user, req }) =>
       runs.runSuite(deps, params.suiteId, user, req.auth?.via === 'token' ? 'api' : 'screen'),
+    activity: ({ result, scoped }) => {
+      const suite = scoped?.name ?? `#${result.suiteId}`
+      return {
+        action: 'ran', targetType: 'run', targetId: result.id, targetName: `${suite} #${result.number}`,
+        summary: `Ran suite ${quoted(suite)}: run ${result.number} ${result.verdict} (${result.passed} passed, ${result.failed} failed).`,
+      }
+    },
   })
 
   api.add({

@@ -49,6 +49,24 @@ export function createAppRouter(history: RouterHistory = createWebHistory()) {
         meta: { public: true, bare: true, title: 'Sign in' },
       },
       {
+        path: '/forgot-password',
+        name: 'forgot-password',
+        component: () => import('../views/ForgotPasswordView.vue'),
+        meta: { public: true, bare: true, title: 'Forgot password' },
+      },
+      {
+        path: '/reset-password',
+        name: 'reset-password',
+        component: () => import('../views/ResetPasswordView.vue'),
+        meta: { public: true, bare: true, title: 'Set a new password' },
+      },
+      {
+        path: '/invitations/accept',
+        name: 'accept-invitation',
+        component: () => import('../views/AcceptInvitationView.vue'),
+        meta: { public: true, bare: true, title: 'Accept an invitation' },
+      },
+      {
         path: '/projects',
         name: 'projects',
         component: () => import('../views/ProjectsView.vue'),

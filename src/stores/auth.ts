@@ -2,6 +2,7 @@ import { defineStore } from 'pinia'
 import { computed, readonly, ref, shallowRef } from 'vue'
 import type { Role, SessionInfo, TeamMembership, User } from '../../shared/api'
 import { getSession, login, logout } from '../api/auth'
+import { updateProfile } from '../api/account'
 import { toApiRequestError, type ApiRequestError } from '../api/http'
 import { useStoredRef } from '../composables/useStoredRef'
 
@@ -114,6 +115,11 @@ export const useAuthStore = defineStore('auth', () => {
     }
   }
 
+  /** Changes the display name on the server and here; throws the ApiRequestError for the form to show. */
+  async function updateDisplayName(displayName: string): Promise<void> {
+    applySession(await updateProfile({ displayName }))
+  }
+
   /** Makes one of the user's teams current and remembers the choice in this browser. */
   function selectTeam(teamId: number): void {
     if (teams.value.some((team) => team.id === teamId)) chosenTeamId.value = teamId
@@ -140,5 +146,6 @@ export const useAuthStore = defineStore('auth', () => {
     signOut,
     clearSession,
     selectTeam,
+    updateDisplayName,
   }
 })
