@@ -125,4 +125,19 @@ describe('the engine interface', () => {
   it('reports no roots for a cubic lying along the line (closed form)', () => {
     expect(closedFormEngine.intersectCubic(new Float64Array([0, 0, 1, 0, 2, 0, 3, 0]), 0, -1, 0, 1, 0, -Infinity, Infinity, out)).toBe(0)
   })
+
+  it('keeps an end point that touches the line with its neighbouring control point on it too (closed form)', () => {
+    // The top of the demo map pin (M12 2C8.13 2 5 5.13 5 9) reversed: P2 and P3 on y = 2.
+    // Hand-worked: y(t) − 2 = 7(1−t)³ + 9.39t(1−t)² = (1−t)²·(7 + 2.39t), a double root at t = 1
+    // and no other on [0, 1].
+    const top = new Float64Array([5, 9, 5, 5.13, 8.13, 2, 12, 2])
+    expect(closedFormEngine.intersectCubic(top, 0, 0, 2, 1, 0, -Infinity, Infinity, out)).toBe(1)
+    expect(out[0]).toBe(1)
+    // The same curve reversed: the double root sits at t = 0.
+    const reversed = new Float64Array([12, 2, 8.13, 2, 5, 5.13, 5, 9])
+    expect(closedFormEngine.intersectCubic(reversed, 0, 0, 2, 1, 0, -Infinity, Infinity, out)).toBe(1)
+    expect(out[0]).toBe(0)
+    // Outside the probe's range the end is not a hit: a ray starting beyond x = 12.
+    expect(closedFormEngine.intersectCubic(top, 0, 13, 2, 1, 0, 0, Infinity, out)).toBe(0)
+  })
 })

@@ -81,8 +81,9 @@ function solvePreparedPair(data: ArrayLike<number>, o: number, out: Float64Array
   projectionWindow[5] = high + margin
   let count = solveBernsteinCubicFastInto(sides, projectionWindow, out)
   if (count === DELICATE_CUBIC) count = solveBernsteinCubicCarefullyInto(sides[0]!, sides[1]!, sides[2]!, sides[3]!, ROOT_T_SLACK, out)
+  if (count > 0) refineCubicRootsOnSides(data, o, probe, sides, out, count)
+  count = keepExactEnds(count, out)
   if (count === 0) return 0
-  refineCubicRootsOnSides(data, o, probe, sides, out, count)
   // keep, in order and once, the roots inside the s-range (written unconditionally, counted by flag)
   let written = 0
   let previous = -1
@@ -95,6 +96,31 @@ function solvePreparedPair(data: ArrayLike<number>, o: number, out: Float64Array
     previous = selectByFlag(keep, t, previous)
   }
   return written
+}
+
+/**
+ * An end point exactly on the line (side exactly 0) is a root whatever the solver made of
+ * its neighbourhood: when the next control point lies on the line too it is a double root,
+ * which rounding can turn into a complex pair or move inside (0, 1). A root within
+ * ROOT_T_SLACK of that end becomes the end itself; with none there, the end is added (a
+ * cubic has at most three roots, so a full list is left alone). `out` stays ascending.
+ */
+function keepExactEnds(count: number, out: Float64Array): number {
+  // A cubic lying along the line is an overlap, not a set of roots (the engine contract).
+  if (sides[0] === 0 && sides[1] === 0 && sides[2] === 0 && sides[3] === 0) return count
+  if (sides[3] === 0) {
+    if (count > 0 && out[count - 1]! >= 1 - ROOT_T_SLACK) out[count - 1] = 1
+    else if (count < 3) out[count++] = 1
+  }
+  if (sides[0] === 0) {
+    if (count > 0 && out[0]! <= ROOT_T_SLACK) out[0] = 0
+    else if (count < 3) {
+      for (let i = count; i > 0; i--) out[i] = out[i - 1]!
+      out[0] = 0
+      count++
+    }
+  }
+  return count
 }
 
 /** Closed-form cubic solve of the probe's implicit line equation along the curve. */
