@@ -19,24 +19,25 @@ const GONE: ReadonlySet<ActivityAction> = new Set(['deleted', 'purged', 'removed
 
 /**
  * The screen that shows an entry's target, or null where there is none (or it is gone):
- * paths and revisions open the library, suites and checks the Suites tab, a run itself on
- * the Suites tab, audits the Audits tab.
+ * a path opens in the library's detail drawer, revisions the library, suites and checks the
+ * Suites tab, a run itself on the Suites tab, an audit itself on the Audits tab.
  */
 export function activityTargetLink(entry: Pick<ActivityEntry, 'action' | 'targetType' | 'targetId' | 'projectId'>): RouteLocationRaw | null {
   if (entry.projectId === null || entry.targetId === null || GONE.has(entry.action)) return null
   const params = { id: String(entry.projectId) }
   switch (entry.targetType) {
     case 'project':
-    case 'path':
     case 'revision':
       return { name: 'project-library', params }
+    case 'path':
+      return { name: 'project-library', params, query: { path: String(entry.targetId) } }
     case 'suite':
     case 'check':
       return { name: 'project-suites', params }
     case 'run':
       return { name: 'project-suites', params, query: { run: String(entry.targetId) } }
     case 'audit':
-      return { name: 'project-audits', params }
+      return { name: 'project-audits', params, query: { audit: String(entry.targetId) } }
     default:
       return null
   }

@@ -24,10 +24,11 @@ afterEach(() => {
 })
 
 describe('activityTargetLink', () => {
-  it('opens paths in the library, a run on the Suites tab, and nothing for what is gone or has no screen', () => {
-    expect(activityTargetLink(added)).toEqual({ name: 'project-library', params: { id: '42' } })
+  it('opens a path in the library, a run on the Suites tab, an audit itself, and nothing for what is gone or has no screen', () => {
+    expect(activityTargetLink(added)).toEqual({ name: 'project-library', params: { id: '42' }, query: { path: '310' } })
+    expect(activityTargetLink({ ...base, targetType: 'revision' })).toEqual({ name: 'project-library', params: { id: '42' } })
     expect(activityTargetLink(ran)).toEqual({ name: 'project-suites', params: { id: '42' }, query: { run: '88' } })
-    expect(activityTargetLink({ ...base, targetType: 'audit' })).toEqual({ name: 'project-audits', params: { id: '42' } })
+    expect(activityTargetLink({ ...base, targetType: 'audit' })).toEqual({ name: 'project-audits', params: { id: '42' }, query: { audit: '310' } })
     expect(activityTargetLink(trashed)).toBeNull()
     expect(activityTargetLink({ ...base, targetType: 'token' })).toBeNull()
     expect(activityTargetLink({ ...base, projectId: null })).toBeNull()
@@ -58,7 +59,7 @@ describe('ActivityView', () => {
     expect(rows[1].text()).toContain('Deleted for good')
     expect(rows[1].find('[aria-label="with a personal API token"]').exists()).toBe(false)
     expect(wrapper.get('[data-testid="activity-target-3"]').attributes('href')).toBe('/projects/42/suites?run=88')
-    expect(wrapper.get('[data-testid="activity-target-1"]').attributes('href')).toBe('/projects/42/library')
+    expect(wrapper.get('[data-testid="activity-target-1"]').attributes('href')).toBe('/projects/42/library?path=310')
     expect(wrapper.find('[data-testid="activity-target-2"]').exists()).toBe(false)
   })
 

@@ -105,6 +105,14 @@ describe('the library in Chromium', () => {
     expect(q.metadata).toMatchObject({ unitsPerEm: 2048, codePoint: 0x51 })
   })
 
+  it('opens one path’s details from a link (?path=, as the activity log links it)', async () => {
+    const knot = await db.ds.getRepository(PathEntity).findOneByOrFail({ projectId, name: 'Crossing knot' })
+    await page.goto(`${app.baseUrl}/projects/${projectId}/library?path=${knot.id}`)
+    const drawer = page.locator('[data-testid="path-drawer"]')
+    await drawer.getByText('Crossing knot').first().waitFor()
+    expect(await drawer.locator('[data-testid="path-open-canvas"]').getAttribute('href')).toBe(`/projects/${projectId}/canvas?paths=${knot.id}`)
+  })
+
   it('loaded nothing from outside 127.0.0.1 and logged no errors', () => {
     expect(browser.problems).toEqual([])
   })
