@@ -7,8 +7,8 @@ import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
 import type { RootcastApp } from '../../server/app'
 import { ROOT_DIR } from '../../server/app'
-import { buildTestApp, TEST_PASSWORD } from '../helpers/test-app'
-import type { TestDatabase } from '../helpers/test-db'
+import { buildTestApp, seedTestData, TEST_PASSWORD } from '../helpers/test-app'
+import { createTestDatabase, type TestDatabase } from '../helpers/test-db'
 
 export const SCREENSHOT_DIR = join(ROOT_DIR, 'test-output', 'screenshots')
 
@@ -108,4 +108,32 @@ export async function signIn(page: Page, baseUrl: string, email: string): Promis
   await page.locator('[data-testid="sign-in-password"] input').fill(TEST_PASSWORD)
   await page.locator('[data-testid="sign-in-submit"]').click()
   await page.waitForURL(/\/projects$/)
+}
+
+/** A seeded throwaway database, the app on it, Chromium, and a page signed in on the demo team. */
+export interface SignedInSession {
+  db: TestDatabase
+  app: RunningApp
+  browser: Browser
+  page: Page
+  /** The seeded "Wayfinding icons" project. */
+  projectId: number
+}
+
+export async function openSignedInSession(email = 'editor@example.com'): Promise<SignedInSession> {
+  const db = await createTestDatabase()
+  await seedTestData(db.ds)
+  const app = await serveApp(db)
+  const browser = await launchBrowser()
+  const page = await (await browser.newContext()).newPage()
+  await signIn(page, app.baseUrl, email)
+  const [{ id }] = (await db.ds.query("SELECT id FROM projects WHERE name = 'Wayfinding icons'")) as Array<{ id: number }>
+  return { db, app, browser, page, projectId: Number(id) }
+}
+
+/** Closes what openSignedInSession opened (whatever part of it got open). */
+export async function closeSignedInSession(session: Partial<SignedInSession> | undefined): Promise<void> {
+  await session?.browser?.close()
+  await session?.app?.close()
+  await session?.db?.drop()
 }

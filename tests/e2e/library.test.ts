@@ -4,9 +4,8 @@ import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PathEntity } from '../../server/entities/path.entity'
 import { RevisionEntity } from '../../server/entities/revision.entity'
-import { seedTestData } from '../helpers/test-app'
-import { createTestDatabase, type TestDatabase } from '../helpers/test-db'
-import { launchBrowser, screenshot, serveApp, signIn, type Browser, type RunningApp } from './browser'
+import type { TestDatabase } from '../helpers/test-db'
+import { closeSignedInSession, openSignedInSession, screenshot, type Browser, type RunningApp, type SignedInSession } from './browser'
 
 let db: TestDatabase
 let app: RunningApp
@@ -14,22 +13,12 @@ let browser: Browser
 let page: Page
 let projectId: number
 
+let session: SignedInSession | undefined
 beforeAll(async () => {
-  db = await createTestDatabase()
-  await seedTestData(db.ds)
-  app = await serveApp(db)
-  browser = await launchBrowser()
-  const ctx = await browser.newContext()
-  page = await ctx.newPage()
-  await signIn(page, app.baseUrl, 'editor@example.com')
-  const [{ id }] = (await db.ds.query("SELECT id FROM projects WHERE name = 'Wayfinding icons'")) as Array<{ id: number }>
-  projectId = Number(id)
+  session = await openSignedInSession('editor@example.com')
+  ;({ db, app, browser, page, projectId } = session)
 })
-afterAll(async () => {
-  await browser?.close()
-  await app?.close()
-  await db?.drop()
-})
+afterAll(() => closeSignedInSession(session))
 
 describe('the library in Chromium', () => {
   it('shows the seeded icons with thumbnails drawn from their segments', async () => {
