@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import type { ActivityAction, ActivityTargetType, ActivityVia } from '../../shared/api/activity'
 import { UserEntity } from './user.entity'
 
@@ -48,7 +49,7 @@ export class ActivityEntity {
   @Column({ type: 'varchar', length: 500 })
   summary: string
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @ManyToOne(() => UserEntity, { onDelete: 'SET NULL' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm'
+import { Column, Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import { AuditEntity } from './audit.entity'
 
 /** The aggregate of one chunk of an audit; the key makes a chunk written twice stay one row. */
@@ -14,7 +15,7 @@ export class AuditChunkEntity {
   @Column({ type: 'mediumtext' })
   aggregate: string
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @ManyToOne(() => AuditEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import { ProjectEntity } from './project.entity'
 import { UserEntity } from './user.entity'
 
@@ -53,7 +54,7 @@ export class AuditEntity {
   @Column({ name: 'created_by', type: 'int', unsigned: true, nullable: true })
   createdById: number | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @Column({ name: 'started_at', type: 'datetime', precision: 3, nullable: true })

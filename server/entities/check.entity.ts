@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn, UpdatedAtColumn } from './time-columns'
 import type { CheckFollow } from '../../shared/api/suites'
 import { PathEntity } from './path.entity'
 import { SuiteEntity } from './suite.entity'
@@ -54,16 +55,10 @@ export class CheckEntity {
   @Column({ name: 'match_winding', type: 'boolean', default: true })
   matchWinding: boolean
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
-  @UpdateDateColumn({
-    name: 'updated_at',
-    type: 'datetime',
-    precision: 3,
-    default: () => 'CURRENT_TIMESTAMP(3)',
-    onUpdate: 'CURRENT_TIMESTAMP(3)',
-  })
+  @UpdatedAtColumn()
   updatedAt: Date
 
   @ManyToOne(() => SuiteEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import type { Role } from '../../shared/api/common'
 import { TeamEntity } from './team.entity'
 import { UserEntity } from './user.entity'
@@ -43,7 +44,7 @@ export class InvitationEntity {
   @Column({ name: 'revoked_at', type: 'datetime', precision: 3, nullable: true })
   revokedAt: Date | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @Column({ name: 'last_sent_at', type: 'datetime', precision: 3 })

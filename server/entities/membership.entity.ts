@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import type { Role } from '../../shared/api/common'
 import { TeamEntity } from './team.entity'
 import { UserEntity } from './user.entity'
@@ -18,7 +19,7 @@ export class MembershipEntity {
   @Column({ type: 'enum', enum: ['owner', 'editor', 'viewer'] })
   role: Role
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @ManyToOne(() => TeamEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import { UserEntity } from './user.entity'
 
 /**
@@ -19,7 +20,7 @@ export class PasswordResetEntity {
   @Column({ name: 'token_hash', type: 'char', length: 64 })
   tokenHash: string
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @Column({ name: 'expires_at', type: 'datetime', precision: 3 })

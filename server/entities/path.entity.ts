@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn, UpdatedAtColumn } from './time-columns'
 import { ProjectEntity } from './project.entity'
 
 export type FillRule = 'nonzero' | 'evenodd'
@@ -47,16 +48,10 @@ export class PathEntity {
   @Column({ name: 'current_revision_id', type: 'int', unsigned: true, nullable: true })
   currentRevisionId: number | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
-  @UpdateDateColumn({
-    name: 'updated_at',
-    type: 'datetime',
-    precision: 3,
-    default: () => 'CURRENT_TIMESTAMP(3)',
-    onUpdate: 'CURRENT_TIMESTAMP(3)',
-  })
+  @UpdatedAtColumn()
   updatedAt: Date
 
   @ManyToOne(() => ProjectEntity, { onDelete: 'CASCADE' })

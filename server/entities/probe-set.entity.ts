@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn, UpdatedAtColumn } from './time-columns'
 import { PathEntity } from './path.entity'
 import { ProjectEntity } from './project.entity'
 import { UserEntity } from './user.entity'
@@ -40,16 +41,10 @@ export class ProbeSetEntity {
   @Column({ name: 'author_id', type: 'int', unsigned: true, nullable: true })
   authorId: number | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
-  @UpdateDateColumn({
-    name: 'updated_at',
-    type: 'datetime',
-    precision: 3,
-    default: () => 'CURRENT_TIMESTAMP(3)',
-    onUpdate: 'CURRENT_TIMESTAMP(3)',
-  })
+  @UpdatedAtColumn()
   updatedAt: Date
 
   @ManyToOne(() => ProjectEntity, { onDelete: 'CASCADE' })

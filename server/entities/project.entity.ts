@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn, UpdatedAtColumn } from './time-columns'
 import { TeamEntity } from './team.entity'
 import { UserEntity } from './user.entity'
 
@@ -20,16 +21,10 @@ export class ProjectEntity {
   @Column({ name: 'created_by_id', type: 'int', unsigned: true, nullable: true })
   createdById: number | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
-  @UpdateDateColumn({
-    name: 'updated_at',
-    type: 'datetime',
-    precision: 3,
-    default: () => 'CURRENT_TIMESTAMP(3)',
-    onUpdate: 'CURRENT_TIMESTAMP(3)',
-  })
+  @UpdatedAtColumn()
   updatedAt: Date
 
   @ManyToOne(() => TeamEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import { PathEntity } from './path.entity'
 import { UserEntity } from './user.entity'
 
@@ -59,7 +60,7 @@ export class RevisionEntity {
   @Column({ name: 'author_id', type: 'int', unsigned: true, nullable: true })
   authorId: number | null
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @ManyToOne(() => PathEntity, { onDelete: 'CASCADE' })

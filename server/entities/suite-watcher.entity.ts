@@ -1,4 +1,5 @@
-import { CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm'
+import { Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 import { SuiteEntity } from './suite.entity'
 import { UserEntity } from './user.entity'
 
@@ -11,7 +12,7 @@ export class SuiteWatcherEntity {
   @PrimaryColumn({ name: 'user_id', type: 'int', unsigned: true })
   userId: number
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @ManyToOne(() => SuiteEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm'
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn, UpdatedAtColumn } from './time-columns'
 import { ProjectEntity } from './project.entity'
 
 /** A named group of checks in a project; the name is unique in the project. */
@@ -17,16 +18,10 @@ export class SuiteEntity {
   @Column({ type: 'varchar', length: 500, default: '' })
   description: string
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
-  @UpdateDateColumn({
-    name: 'updated_at',
-    type: 'datetime',
-    precision: 3,
-    default: () => 'CURRENT_TIMESTAMP(3)',
-    onUpdate: 'CURRENT_TIMESTAMP(3)',
-  })
+  @UpdatedAtColumn()
   updatedAt: Date
 
   @ManyToOne(() => ProjectEntity, { onDelete: 'CASCADE' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn } from 'typeorm'
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm'
+import { CreatedAtColumn } from './time-columns'
 
 @Entity('users')
 @Index('IDX_users_email', ['email'], { unique: true })
@@ -15,7 +16,7 @@ export class UserEntity {
   @Column({ name: 'password_hash', type: 'varchar', length: 100 })
   passwordHash: string
 
-  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  @CreatedAtColumn()
   createdAt: Date
 
   @Column({ name: 'last_active_at', type: 'datetime', precision: 3, nullable: true })
