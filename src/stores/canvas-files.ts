@@ -69,6 +69,19 @@ export const useCanvasFilesStore = defineStore('canvasFiles', () => {
     }
   }
 
+  /**
+   * Puts a path on the sheet as a case shows it: `revision` itself, or the path's latest one.
+   * An open sheet of that path with unsaved edits is kept as it is. Resolves to its key.
+   */
+  async function openCase(pathId: number, revision: number | 'latest'): Promise<string | null> {
+    const [key] = await openPaths([pathId])
+    if (!key) return null
+    const wanted = revision === 'latest' ? ((await getPath(pathId).catch(() => null))?.revision ?? null) : revision
+    const sheet = canvas.sheets.find((s) => s.key === key)
+    if (wanted !== null && sheet && sheet.revision !== wanted && !canvas.isDirty(key)) return (await openRevision(pathId, wanted)) ?? key
+    return key
+  }
+
   /** Saves a sheet: a new revision of its path, or a new path for one drawn here. Resolves to the sheet's key. */
   async function save(projectId: number, key: string, message: string, name: string): Promise<string | null> {
     const sheet = canvas.sheets.find((s) => s.key === key)
@@ -93,5 +106,5 @@ export const useCanvasFilesStore = defineStore('canvasFiles', () => {
     error.value = null
   }
 
-  return { projectId, isLoading, isSaving, error, openPaths, openRevision, save, clearError }
+  return { projectId, isLoading, isSaving, error, openPaths, openCase, openRevision, save, clearError }
 })

@@ -132,6 +132,11 @@ export const useSuitesStore = defineStore('suites', () => {
     checks.value = checks.value.filter((c) => c.id !== checkId)
   }
 
+  /** One check (the canvas opens its case); null with `error` set when it cannot be read. */
+  function fetchCheck(checkId: number): Promise<Check | null> {
+    return guard(() => api.getCheck(checkId))
+  }
+
   async function loadCheckTrend(checkId: number): Promise<void> {
     const page = await guard(() => api.listCheckRuns(checkId))
     if (page) checkTrend.value = { checkId, runs: page.items }
@@ -139,6 +144,6 @@ export const useSuitesStore = defineStore('suites', () => {
 
   return {
     projectId, suites, suiteId, suite, checks, runs, run, checkTrend, isLoading, isRunning, error,
-    load, choose, openRun, runNow, createSuite, removeSuite, setWatching, addCheck, changeCheck, removeCheck, loadCheckTrend,
+    load, choose, openRun, fetchCheck, runNow, createSuite, removeSuite, setWatching, addCheck, changeCheck, removeCheck, loadCheckTrend,
   }
 })
